@@ -1,0 +1,238 @@
+"""The input edge: text as people type it -> SI floats, with a dimension check.
+
+Every quantity a person types goes through :func:`parse`, which returns a
+plain float in SI units or raises :class:`calc.errors.InputError` naming the
+field and showing an accepted example. Nothing else in ``calc`` sees text.
+
+pint costs several hundred milliseconds to import and build its registry, so
+it is loaded on first use (or ahead of time with :func:`warm_up`, which the TUI
+calls from a background thread after the first frame).
+
+Accepted forms, beyond what pint understands directly:
+
+* compound lengths: ``"12 ft 6 in"``, ``"12' 6\\""``, ``"6 1/2 in"``,
+  ``"3 ft 2-3/8 in"``;
+* percentages: ``"66 %"``, ``"66%"``;
+* fractions of a wavelength: ``"0.25 wl"``, ``"0.25 wavelength"``, ``"0.25 λ"``;
+* ``µ``, ``μ`` and ``u`` as the micro prefix, ``Ω`` for ohm.
+"""
+
+from __future__ import annotations
+
+import math
+import re
+import threading
+from dataclasses import dataclass
+from functools import lru_cache
+
+from calc.errors import InputError
+
+MAX_INPUT_CHARS = 200
+
+_registry = None
+_registry_lock = threading.Lock()
+
+
+def _ureg():
+    """Return the package's one pint registry, building it on first use."""
+    global _registry
+    if _registry is None:
+        with _registry_lock:
+            if _registry is None:
+                import pint  # deferred: ~0.3-0.6 s of import and registry build
+
+                _registry = pint.UnitRegistry(autoconvert_offset_to_baseunit=True)
+    return _registry
+
+
+def warm_up() -> None:
+    """Build the pint registry now (call from a background thread)."""
+    _ureg()
+    parse("1 ns", "warm-up", "time")
+
+
+@dataclass(frozen=True)
+class Kind:
+    """What a field holds: its SI unit, range and a typed example."""
+
+    si_unit: str  # pint expression of the SI unit the float is returned in
+    example: str
+    bare_unit: str | None = None  # unit assumed for a bare number; None refuses
+    minimum: float | None = 0.0  # exclusive lower bound unless min_inclusive
+    min_inclusive: bool = False
+    maximum: float | None = None  # inclusive upper bound
+    noun: str = "value"
+
+
+KINDS: dict[str, Kind] = {
+    "time": Kind("s", "245 ns", noun="time"),
+    "length": Kind("m", "12 ft 6 in", noun="length"),
+    "length_or_zero": Kind("m", "15 mm", minimum=0.0, min_inclusive=True, noun="length"),
+    "frequency": Kind("Hz", "146.52 MHz", noun="frequency"),
+    "impedance": Kind("ohm", "50 ohm", bare_unit="ohm", noun="impedance"),
+    "resistance": Kind("ohm", "75 ohm", bare_unit="ohm", minimum=0.0, min_inclusive=True,
+                       noun="resistance"),
+    "capacitance": Kind("F", "10 pF", noun="capacitance"),
+    "inductance": Kind("H", "100 nH", noun="inductance"),
+    "vf": Kind("dimensionless", "0.66", bare_unit="dimensionless", maximum=1.0,
+               noun="velocity factor"),
+    "nvp": Kind("dimensionless", "66 %", bare_unit="percent", maximum=1.0, noun="NVP"),
+    "eps_r": Kind("dimensionless", "2.25", bare_unit="dimensionless", minimum=1.0,
+                  min_inclusive=True, noun="relative permittivity"),
+    "tolerance": Kind("dimensionless", "3 %", bare_unit="dimensionless", minimum=0.0,
+                      min_inclusive=True, maximum=0.5, noun="tolerance"),
+    "delay_per_length": Kind("s/m", "1.54 ns/ft", noun="delay per length"),
+    "velocity": Kind("m/s", "198 m/us", noun="velocity"),
+    "angle": Kind("degree", "90 deg", bare_unit="degree", noun="electrical length"),
+    "voltage": Kind("V", "2.5 V", bare_unit="V", minimum=None, noun="voltage"),
+    "ratio": Kind("dimensionless", "-0.33", bare_unit="dimensionless", minimum=None,
+                  noun="level"),
+}
+
+_WAVELENGTH_WORDS = ("wavelengths", "wavelength", "lambda", "wl", "λ")
+_NUMBER = r"[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?"
+_MIXED_FRACTION = re.compile(rf"(?<![\w.])(\d+)[\s-]+(\d+)/(\d+)(?![\w.])")
+_SIMPLE_FRACTION = re.compile(r"(?<![\w./])(\d+)/(\d+)(?![\d./])")
+_FEET_INCHES = re.compile(
+    rf"^\s*(?:(?P<ft>{_NUMBER})\s*(?:ft|feet|foot|')\s*)?"
+    rf"(?:(?P<inch>{_NUMBER})\s*(?:in|inch|inches|\"|''))?\s*$"
+)
+
+
+def _normalise(text: str) -> str:
+    """Spellings people type -> spellings pint reads."""
+    t = text.strip()
+    t = t.replace("\u00b5", "u").replace("\u03bc", "u")  # micro sign, Greek mu
+    t = t.replace("\u03a9", " ohm").replace("\u2126", " ohm")  # Omega, ohm sign
+    t = t.replace("\u2032", "'").replace("\u2033", '"')  # prime, double prime
+    t = t.replace("\u2212", "-")  # minus sign
+    t = re.sub(r"\bohms\b", "ohm", t, flags=re.IGNORECASE)
+    t = re.sub(r"\bOhm\b", "ohm", t)
+    t = t.replace("%", " percent")
+    # mixed and simple fractions: "6 1/2 in", "2-3/8 in" -> decimal
+    t = _MIXED_FRACTION.sub(lambda m: _frac(m.group(1), m.group(2), m.group(3)), t)
+    t = _SIMPLE_FRACTION.sub(lambda m: _frac("0", m.group(1), m.group(2)), t)
+    return t
+
+
+def _frac(whole: str, num: str, den: str) -> str:
+    d = int(den)
+    if d == 0:
+        return f"{whole} {num}/{den}"  # leave it for pint to refuse
+    return repr(int(whole) + int(num) / d)
+
+
+def _feet_inches_m(text: str) -> float | None:
+    """'12 ft 6 in', '12\\' 6"', '6"' -> metres; None if not that shape."""
+    m = _FEET_INCHES.match(text)
+    if not m or (m.group("ft") is None and m.group("inch") is None):
+        return None
+    feet = float(m.group("ft") or 0.0)
+    inches = float(m.group("inch") or 0.0)
+    return feet * 0.3048 + inches * 0.0254
+
+
+def _fail(field: str, kind: Kind, problem: str) -> InputError:
+    return InputError(field, problem, kind.example)
+
+
+@lru_cache(maxsize=4096)
+def parse(text: str, field: str, kind: str) -> float:
+    """Parse ``text`` as a quantity of ``kind`` (a key of :data:`KINDS`).
+
+    Returns the value as a float in the kind's SI unit (seconds, metres,
+    hertz, ohms, farads, henries, a plain fraction for VF/NVP/tolerance,
+    degrees for electrical length, s/m, m/s). Raises
+    :class:`~calc.errors.InputError` for anything else.
+    """
+    k = KINDS[kind]
+    if not isinstance(text, str):
+        raise _fail(field, k, "expected text")
+    if len(text) > MAX_INPUT_CHARS:
+        raise _fail(field, k, f"input longer than {MAX_INPUT_CHARS} characters")
+    raw = text.strip()
+    if not raw:
+        raise _fail(field, k, f"a {k.noun} is required")
+    t = _normalise(raw)
+    value: float | None = None
+    if kind == "angle":
+        for word in _WAVELENGTH_WORDS:
+            if t.lower().endswith(word):
+                number = t[: -len(word)].strip()
+                value = 360.0 * _plain_number(number, field, k)
+                break
+    if value is None and kind.startswith("length"):
+        value = _feet_inches_m(t)
+    if value is None:
+        value = _with_pint(t, field, k)
+    return _check_range(value, field, k, raw)
+
+
+def _plain_number(text: str, field: str, k: Kind) -> float:
+    if not re.fullmatch(_NUMBER, text.strip()):
+        raise _fail(field, k, f"cannot read {text.strip()!r} as a number")
+    return float(text)
+
+
+def _with_pint(t: str, field: str, k: Kind) -> float:
+    ureg = _ureg()
+    if re.fullmatch(_NUMBER, t):
+        if k.bare_unit is None:
+            raise _fail(field, k, f"{t!r} needs a unit")
+        t = f"{t} {k.bare_unit}"
+    try:
+        q = ureg.Quantity(t)
+    except Exception as exc:  # pint raises many types for bad text; all mean the same here
+        raise _fail(field, k, f"cannot read {t!r} ({_pint_reason(exc)})") from None
+    if not isinstance(q, ureg.Quantity):  # a bare number slipped through as float
+        q = ureg.Quantity(float(q), k.bare_unit or "dimensionless")
+    target = ureg.Quantity(1.0, k.si_unit)
+    if q.dimensionality != target.dimensionality:
+        raise _fail(field, k, f"{t!r} is not a {k.noun}")
+    try:
+        value = float(q.to(k.si_unit).magnitude)
+    except Exception as exc:
+        raise _fail(field, k, f"cannot convert {t!r} ({_pint_reason(exc)})") from None
+    return value
+
+
+def _pint_reason(exc: Exception) -> str:
+    name = type(exc).__name__
+    if name == "UndefinedUnitError":
+        return "unknown unit"
+    return "not a quantity"
+
+
+def _check_range(value: float, field: str, k: Kind, raw: str) -> float:
+    unit = "" if k.si_unit == "dimensionless" else f" {k.si_unit}"
+    if not math.isfinite(value):
+        raise _fail(field, k, f"{raw!r} is not a finite {k.noun}")
+    if k.minimum is not None:
+        if k.min_inclusive and value < k.minimum:
+            raise _fail(field, k, f"{raw!r}: the {k.noun} must be at least {k.minimum:g}{unit}")
+        if not k.min_inclusive and value <= k.minimum:
+            raise _fail(field, k, f"{raw!r}: the {k.noun} must be greater than {k.minimum:g}{unit}")
+    if k.maximum is not None and value > k.maximum:
+        raise _fail(field, k, f"{raw!r}: the {k.noun} must be at most {k.maximum:g}{unit}")
+    return value
+
+
+def parse_complex_impedance(text: str, field: str) -> complex:
+    """``"60+40j ohm"``, ``"60-j40"``, ``"75 ohm"`` -> complex ohms (real part >= 0)."""
+    example = "60+40j ohm"
+    t = _normalise(text if isinstance(text, str) else "")
+    if len(t) > MAX_INPUT_CHARS or not t:
+        raise InputError(field, "an impedance is required", example)
+    body = re.sub(r"\s*ohm\s*$", "", t).replace(" ", "")
+    body = re.sub(r"([+-])j(\d)", r"\g<1>\2j", body)  # 60-j40 -> 60-40j
+    if body.startswith("j"):
+        body = body[1:] + "j"
+    try:
+        z = complex(body)
+    except ValueError:
+        raise InputError(field, f"cannot read {text.strip()!r} as an impedance", example) from None
+    if not (math.isfinite(z.real) and math.isfinite(z.imag)):
+        raise InputError(field, "must be finite", example)
+    if z.real < 0:
+        raise InputError(field, "a passive load has a real part of zero or more", example)
+    return z

@@ -1,0 +1,158 @@
+"""Pieces every CLI command shares: output options, velocity options, the
+catalog, hazard cautions and JSON output.
+
+Conventions (see DEVELOPERS.md):
+
+* ``add_output_options(parser)`` gives ``--json``, ``--units`` and
+  ``--fraction``; ``emit(args, data, lines)`` prints either one JSON object
+  (keys snake_case with an SI suffix) or the human lines.
+* ``add_velocity_options(parser)`` gives the mutually exclusive velocity
+  inputs; ``resolve_velocity(args)`` turns them into a ``Velocity``, the
+  cable (if one was named) and the relative tolerance.
+* Bad input is raised as :class:`calc.errors.InputError`; :mod:`tui.cli`
+  prints it as one line and exits 2.
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import sys
+from dataclasses import dataclass
+from functools import lru_cache
+
+from calc.errors import InputError
+
+
+def add_output_options(parser: argparse.ArgumentParser) -> None:
+    out = parser.add_argument_group("output")
+    out.add_argument("--json", action="store_true", help="print one JSON object on stdout")
+    out.add_argument("--units", choices=("metric", "imperial"), default=None,
+                     help="lengths in metres or feet and inches (default: your preference)")
+    out.add_argument("--fraction", type=int, choices=(8, 16, 32), default=None,
+                     help="feet-and-inches to this fraction of an inch (default 16)")
+
+
+def units_of(args) -> tuple[str, int]:
+    """The unit system and tape fraction: the option, else the saved preference."""
+    units = getattr(args, "units", None)
+    fraction = getattr(args, "fraction", None)
+    if units is None or fraction is None:
+        prefs = _preferences()
+        units = units or prefs.get("units", "metric")
+        fraction = fraction or int(prefs.get("fraction", 16))
+    return units, fraction
+
+
+def _preferences() -> dict:
+    try:
+        from tui.prefs import load_preferences
+    except ImportError:  # preferences arrive with the terminal interface
+        return {}
+    prefs = load_preferences()
+    return {"units": prefs.units, "fraction": prefs.fraction}
+
+
+def emit(args, data: dict, lines: list[str] | str) -> int:
+    """Print ``data`` as one JSON object with ``--json``, else the human ``lines``."""
+    from tui.fmt import json_ready
+
+    if getattr(args, "json", False):
+        sys.stdout.write(json.dumps(json_ready(data), allow_nan=False) + "\n")
+    else:
+        text = lines if isinstance(lines, str) else "\n".join(lines)
+        sys.stdout.write(text.rstrip("\n") + "\n")
+    return 0
+
+
+@lru_cache(maxsize=1)
+def catalog():
+    """The merged catalog (built-in plus the user's file); problems go to stderr once."""
+    from cable_catalog.loader import load_catalog
+    from tui.paths import user_catalog_path
+
+    cat = load_catalog(user_catalog_path())
+    for problem in cat.problems:
+        print(f"halftrip: catalog: {problem}", file=sys.stderr)
+    return cat
+
+
+def cable(cable_id: str, field: str = "--cable"):
+    """A catalog cable by id, or an InputError naming near matches."""
+    try:
+        found = catalog().get(cable_id)
+    except KeyError as exc:
+        raise InputError(field, exc.args[0], "rg58") from None
+    warn_hazards([found])
+    return found
+
+
+def warn_hazards(cables) -> None:
+    """One caution line on stderr for any hazard-tagged cable used by a command."""
+    tags = sorted({t for c in cables if c is not None for t in c.hazards})
+    if not tags:
+        return
+    try:
+        from tui.safety import one_line_caution
+    except ImportError:
+        line = ("caution: this cable type may be energized ("
+                + ", ".join(tags) + "); treat it as live until a qualified person has "
+                "proven otherwise, and follow local codes and site procedures.")
+    else:
+        line = one_line_caution(tags)
+    print(f"halftrip: {line}", file=sys.stderr)
+
+
+VELOCITY_OPTIONS = (
+    # (flag, dest, parse kind, velocity convention, help)
+    ("--cable", "cable", None, None, "catalog cable id (see 'halftrip cables list')"),
+    ("--vf", "vf", "vf", "vf", "velocity factor, e.g. 0.66"),
+    ("--nvp", "nvp", "nvp", "vf", "nominal velocity of propagation, e.g. '66 %%'"),
+    ("--eps-r", "eps_r", "eps_r", "eps_r", "relative permittivity, e.g. 2.25"),
+    ("--delay-per-length", "delay_per_length", "delay_per_length", "delay_per_length_s_per_m",
+     "delay per length, e.g. '1.54 ns/ft'"),
+    ("--velocity", "velocity", "velocity", "velocity_m_per_s", "velocity, e.g. '198 m/us'"),
+    ("--half-velocity", "half_velocity", "velocity", "half_velocity_m_per_s",
+     "half velocity V/2, e.g. '99 m/us'"),
+)
+
+
+def add_velocity_options(parser: argparse.ArgumentParser, required: bool = True,
+                         with_cable: bool = True) -> None:
+    group = parser.add_mutually_exclusive_group(required=required)
+    for flag, dest, _kind, _conv, help_text in VELOCITY_OPTIONS:
+        if flag == "--cable" and not with_cable:
+            continue
+        group.add_argument(flag, dest=dest, metavar="VALUE" if flag != "--cable" else "ID",
+                           help=help_text)
+
+
+@dataclass(frozen=True)
+class ResolvedVelocity:
+    velocity: object  # calc.velocity.Velocity
+    cable: object | None  # calc.cable.Cable or None
+    tolerance: float  # relative VF tolerance (0 when unknown)
+    source: str  # what the velocity came from, for people
+
+
+def resolve_velocity(args, tolerance_text: str | None = None) -> ResolvedVelocity | None:
+    """The velocity the user asked for, or None if no velocity option was given."""
+    from calc import velocity as vel
+    from calc.parse import parse
+
+    tolerance = None
+    if tolerance_text:
+        tolerance = parse(tolerance_text, "--tolerance", "tolerance")
+    for flag, dest, kind, conv, _help in VELOCITY_OPTIONS:
+        text = getattr(args, dest, None)
+        if text is None:
+            continue
+        if flag == "--cable":
+            c = cable(text)
+            return ResolvedVelocity(vel.from_vf(c.vf), c,
+                                    c.vf_tolerance if tolerance is None else tolerance,
+                                    f"catalog cable {c.id} (VF {c.vf:g})")
+        value = parse(text, flag, kind)
+        v = vel.from_vf(vel.vf_from(conv, value), flag)
+        return ResolvedVelocity(v, None, tolerance or 0.0, f"{flag} {text}")
+    return None

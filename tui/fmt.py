@@ -1,0 +1,96 @@
+"""Formatting of core results for people (screen and terminal) and for JSON.
+
+The core returns SI floats; everything a person reads is shaped here, so the
+TUI and the CLI show the same numbers the same way.
+"""
+
+from __future__ import annotations
+
+import math
+
+from calc.tape import to_feet_inches
+
+UNIT_SYSTEMS = ("metric", "imperial")
+
+
+def length(length_m: float, units: str = "metric", fraction: int = 16) -> str:
+    """A length as a tape shows it: ``"12.345 m"`` / ``"850 mm"`` or ``"40 ft 6-3/8 in"``."""
+    if length_m is None or not math.isfinite(length_m):
+        return "-"
+    if units == "imperial":
+        fi = to_feet_inches(length_m, fraction)
+        sign = "-" if fi.negative else ""
+        frac = f"-{fi.numerator}/{fi.denominator}" if fi.numerator else ""
+        if fi.feet:
+            return f"{sign}{fi.feet} ft {fi.inches}{frac} in"
+        return f"{sign}{fi.inches}{frac} in"
+    a = abs(length_m)
+    if a < 1.0:
+        return f"{length_m * 1000:.1f} mm" if a < 0.1 else f"{length_m * 1000:.0f} mm"
+    if a < 1000.0:
+        return f"{length_m:.3f} m"
+    return f"{length_m / 1000:.4f} km"
+
+
+def length_mm(length_m: float) -> str:
+    """Millimetres to the nearest millimetre, as a cut list wants."""
+    return f"{length_m * 1000:.0f} mm"
+
+
+def _scaled(value: float, unit: str, steps: tuple[tuple[float, str], ...], digits: int = 4) -> str:
+    if value is None or not math.isfinite(value):
+        return "-"
+    a = abs(value)
+    for scale, prefix in steps:
+        if a >= scale:
+            return f"{value / scale:.{digits}g} {prefix}{unit}"
+    scale, prefix = steps[-1]
+    return f"{value / scale:.{digits}g} {prefix}{unit}"
+
+
+def time(t_s: float, digits: int = 4) -> str:
+    return _scaled(t_s, "s", ((1.0, ""), (1e-3, "m"), (1e-6, "us"), (1e-9, "ns"), (1e-12, "ps")), digits)
+
+
+def frequency(f_hz: float, digits: int = 6) -> str:
+    return _scaled(f_hz, "Hz", ((1e9, "G"), (1e6, "M"), (1e3, "k"), (1.0, "")), digits)
+
+
+def impedance(z_ohm: float | complex, digits: int = 4) -> str:
+    if isinstance(z_ohm, complex):
+        if not (math.isfinite(z_ohm.real) and math.isfinite(z_ohm.imag)):
+            return "open (infinite)"
+        sign = "+" if z_ohm.imag >= 0 else "-"
+        return f"{z_ohm.real:.{digits}g} {sign} j{abs(z_ohm.imag):.{digits}g} ohm"
+    if not math.isfinite(z_ohm):
+        return "open (infinite)"
+    return f"{z_ohm:.{digits}g} ohm"
+
+
+def decibels(db: float) -> str:
+    return "infinite (no reflection)" if not math.isfinite(db) else f"{db:.2f} dB"
+
+
+def ratio(x: float, digits: int = 4) -> str:
+    return "infinite" if not math.isfinite(x) else f"{x:.{digits}g}"
+
+
+def json_ready(obj):
+    """Make ``obj`` JSON-serialisable: numpy scalars/arrays to Python, inf/nan to None."""
+    import dataclasses
+
+    if dataclasses.is_dataclass(obj) and not isinstance(obj, type):
+        obj = {f.name: getattr(obj, f.name) for f in dataclasses.fields(obj)}
+    if isinstance(obj, dict):
+        return {str(k): json_ready(v) for k, v in obj.items()}
+    if isinstance(obj, list | tuple):
+        return [json_ready(v) for v in obj]
+    if hasattr(obj, "tolist") and hasattr(obj, "dtype"):  # numpy array or scalar
+        return json_ready(obj.tolist())
+    if isinstance(obj, bool) or obj is None or isinstance(obj, str | int):
+        return obj
+    if isinstance(obj, float):
+        return obj if math.isfinite(obj) else None
+    if isinstance(obj, complex):
+        return {"real": json_ready(obj.real), "imag": json_ready(obj.imag)}
+    return str(obj)
