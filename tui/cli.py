@@ -47,8 +47,20 @@ def build_parser() -> argparse.ArgumentParser:
         cmd = sub.add_parser(names[0], aliases=list(names[1:]), help=module.HELP,
                              description=module.HELP)
         module.add_arguments(cmd)
-        cmd.set_defaults(func=module.run)
+        if getattr(module, "LOGGABLE", False):
+            _add_save_options(cmd)
+        cmd.set_defaults(func=module.run, loggable=getattr(module, "LOGGABLE", False))
     return parser
+
+
+def _add_save_options(cmd: argparse.ArgumentParser) -> None:
+    """``--save`` with ``--job``/``--label``/``--note``: store the result in the job log."""
+    log = cmd.add_argument_group("job log")
+    log.add_argument("--save", action="store_true", help="save the result as a job-log entry")
+    log.add_argument("--job", metavar="ID", help="job to save into (default: the newest job)")
+    log.add_argument("--label", metavar="TEXT", help="run or circuit id for the entry")
+    log.add_argument("--note", metavar="TEXT", help="free note for the entry")
+    log.add_argument("--db", metavar="PATH", help="job database (default: user data directory)")
 
 
 def main(argv: list[str] | None = None) -> int:
@@ -65,7 +77,13 @@ def main(argv: list[str] | None = None) -> int:
     from calc.errors import InputError
 
     try:
-        return int(args.func(args) or Exit.OK)
+        code = int(args.func(args) or Exit.OK)
+        if code == Exit.OK and getattr(args, "save", False):
+            from tui.commands.common import last_emitted
+            from tui.joblog.cli_save import save_from_cli  # the job log (issue 8)
+
+            save_from_cli(args, last_emitted())
+        return code
     except InputError as exc:
         print(f"halftrip {args.command}: {exc}", file=sys.stderr)
         return Exit.BAD_INPUT

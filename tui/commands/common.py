@@ -53,10 +53,20 @@ def _preferences() -> dict:
     return {"units": prefs.units, "fraction": prefs.fraction}
 
 
+_last: dict = {}
+
+
+def last_emitted() -> dict:
+    """The data of the last :func:`emit` (what ``--save`` stores in the job log)."""
+    return _last
+
+
 def emit(args, data: dict, lines: list[str] | str) -> int:
     """Print ``data`` as one JSON object with ``--json``, else the human ``lines``."""
     from tui.fmt import json_ready
 
+    _last.clear()
+    _last.update(json_ready(data))
     if getattr(args, "json", False):
         sys.stdout.write(json.dumps(json_ready(data), allow_nan=False) + "\n")
     else:
