@@ -1,0 +1,23 @@
+"""Shared test fixtures.
+
+Every test runs with the user's real directories replaced by temporary ones,
+so no test reads or writes a person's own catalog, preferences or job log.
+"""
+
+from __future__ import annotations
+
+import pytest
+
+
+@pytest.fixture(autouse=True)
+def _isolated_user_dirs(tmp_path_factory, monkeypatch):
+    base = tmp_path_factory.mktemp("halftrip-user")
+    monkeypatch.setenv("HALFTRIP_DATA_DIR", str(base / "data"))
+    monkeypatch.setenv("HALFTRIP_CONFIG_DIR", str(base / "config"))
+    monkeypatch.setenv("HALFTRIP_DB", str(base / "data" / "jobs.sqlite3"))
+    monkeypatch.delenv("HALFTRIP_DEBUG", raising=False)
+    from tui.commands import common
+
+    common.catalog.cache_clear()
+    yield base
+    common.catalog.cache_clear()
