@@ -364,6 +364,15 @@ def trim_from_resonance(target_deg: float, frequency_hz: float, resonance_hz: fl
 def _trim(method: str, target_deg: float, frequency_hz: float, measured_deg: float,
           current_length_m: float | None) -> Trim:
     _positive(target_deg, "electrical length", "90 deg")
+    vf = None
+    if current_length_m is not None:
+        _positive(current_length_m, "length", "400 mm")
+        vf = vf_from_electrical(current_length_m, measured_deg, frequency_hz)
+        if vf > 1.0 + _EPS:  # round-off at exactly VF 1 is not a complaint
+            raise InputError(
+                f"measured {method}",
+                f"with a piece {current_length_m:g} m long the measurement implies VF "
+                f"{vf:.3f}, faster than light: check the length and the measurement")
     keep = target_deg / measured_deg
     if keep > 1.0 + _EPS:
         raise InputError(
@@ -374,13 +383,6 @@ def _trim(method: str, target_deg: float, frequency_hz: float, measured_deg: flo
     keep = min(keep, 1.0)
     if current_length_m is None:
         return Trim(method, target_deg, frequency_hz, measured_deg, keep, None, None, None, None)
-    _positive(current_length_m, "length", "400 mm")
-    vf = vf_from_electrical(current_length_m, measured_deg, frequency_hz)
-    if vf > 1.0:
-        raise InputError(
-            f"measured {method}",
-            f"with a piece {current_length_m:g} m long the measurement implies VF {vf:.3f}, "
-            "faster than light: check the length and the measurement")
     kept = keep * current_length_m
     return Trim(method, target_deg, frequency_hz, measured_deg, keep, current_length_m, kept,
                 current_length_m - kept, vf)

@@ -115,14 +115,17 @@ def degrees(deg: float, digits: int = 2) -> str:
     return f"{deg:.{digits}f} deg ({deg / 360.0:.4f} wl)"
 
 
-def table(rows: list[tuple[str, ...]], right: tuple[int, ...] = ()) -> list[str]:
-    """Rows of text as aligned columns two spaces apart (``right``: right-aligned columns)."""
+def table(rows: list[tuple[str, ...]], right: tuple[int, ...] = (),
+          max_width: int = 80) -> list[str]:
+    """Rows of text as aligned columns (``right``: right-aligned columns), two spaces
+    apart, or one where two would pass ``max_width``."""
     widths = [max(len(r[i]) for r in rows) for i in range(len(rows[0]))]
+    gap = 2 if sum(widths) + 2 * (len(widths) - 1) <= max_width else 1
     out = []
     for r in rows:
         cells = [v.rjust(w) if i in right else v.ljust(w)
                  for i, (v, w) in enumerate(zip(r, widths, strict=True))]
-        out.append("  ".join(cells).rstrip())
+        out.append((" " * gap).join(cells).rstrip())
     return out
 
 

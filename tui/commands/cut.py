@@ -120,12 +120,12 @@ def _lines(plan, resolved, piece, units, fraction, fmt) -> list[str]:
     lines += [
         f"velocity factor       {plan.vf:.3f}{tol} from {resolved.source}",
         f"wavelength in line    {both(plan.wavelength_in_line_m)}",
-        f"physical length       {both(plan.physical_length_m)} between connector reference "
-        "planes",
+        f"physical length       {both(plan.physical_length_m)} between reference planes",
     ]
     if plan.tolerance_m:
         lines.append(f"                      +/- {fmt.length(plan.tolerance_m, units, fraction)} "
-                     "from the VF tolerance: cut long, measure, trim (halftrip trim)")
+                     "from the VF tolerance:")
+        lines.append("                      cut long, measure, then trim (halftrip trim)")
     if c.allowance_per_end_m:
         lines.append(f"connector allowance   {both(c.allowance_per_end_m)} per end")
     lines.append(f"cut length            {both(c.cut_length_m)}")
@@ -136,6 +136,8 @@ def _lines(plan, resolved, piece, units, fraction, fmt) -> list[str]:
         else:
             unit = "quarter wave" if r.unit_deg == 90.0 else "half wave"
             how = f"{r.multiple} {unit}{'s' if r.multiple != 1 else ''} ({r.electrical_deg:g} deg)"
-        lines.append(f"to span {fmt.length(r.span_m, units, fraction)} as a {r.kind}: {how}, "
-                     f"{fmt.length(r.spare_m, units, fraction)} beyond the span")
+        lines.append(f"span                  {fmt.length(r.span_m, units, fraction)} as a "
+                     f"{r.kind}: {how}")
+        lines.append(f"                      {fmt.length(r.spare_m, units, fraction)} of line "
+                     "beyond the span")
     return lines

@@ -139,10 +139,10 @@ def _record(h, span, allowance, fraction, fmt) -> dict:
 
 def _lines(h, span, allowance, units, fraction, fmt) -> list[str]:
     n = h.antennas
-    band = (f" (band {fmt.frequency(h.band_hz[0])} to {fmt.frequency(h.band_hz[1])})"
-            if h.band_hz else "")
     lines = [f"{n} antennas of {fmt.impedance(h.antenna_z_ohm)} in phase, fed by "
-             f"{fmt.impedance(h.feed_z_ohm)}, at {fmt.frequency(h.frequency_hz)}{band}"]
+             f"{fmt.impedance(h.feed_z_ohm)}, at {fmt.frequency(h.frequency_hz)}"]
+    if h.band_hz:
+        lines.append(f"band {fmt.frequency(h.band_hz[0])} to {fmt.frequency(h.band_hz[1])}")
     arm = h.arms[0].section
     if h.topology == "quarter":
         lines.append(f"each arm an odd number of quarter waves, {fmt.impedance(h.antenna_z_ohm)} "
@@ -158,22 +158,23 @@ def _lines(h, span, allowance, units, fraction, fmt) -> list[str]:
                      f"{line_label(arm)} ({fmt.impedance(arm.z0_ohm)})")
         lines.append(f"transformer line: ideal {fmt.impedance(h.ideal_transformer_z0_ohm)}, "
                      f"using {line_label(tr)} ({fmt.impedance(tr.z0_ohm)})")
+    if h.arm_reach_m or h.slack_m:
+        slack = f" plus {fmt.length(h.slack_m, units, fraction)} slack" if h.slack_m else ""
+        lines.append(f"arms reach {fmt.length(h.arm_reach_m, units, fraction)}{slack}")
     if span is not None:
-        lines.append(f"arms reach {fmt.length(h.arm_reach_m, units, fraction)}: antennas in a "
-                     f"line {fmt.length(span, units, fraction)} apart, junction at the centre")
+        lines.append(f"(antennas in a line {fmt.length(span, units, fraction)} apart, junction "
+                     "at the centre)")
     elif h.arm_reach_m:
-        lines.append(f"arms reach {fmt.length(h.arm_reach_m, units, fraction)} from the "
-                     "junction to the farthest antenna")
-    if h.slack_m:
-        lines[-1] += f", plus {fmt.length(h.slack_m, units, fraction)} slack"
+        lines.append("(from the junction to the farthest antenna)")
     other = fmt.other_units(units)
-    title = "cut list" + (f" (connector allowance {fmt.length(allowance, units, fraction)} "
-                          "per end)" if allowance else "")
+    title = "cut list, electrical length in degrees" + (
+        f", connector allowance {fmt.length(allowance, units, fraction)} per end"
+        if allowance else "")
     lines += ["", title]
-    rows = [("piece", "line", "electrical", "physical", "cut", "")]
+    rows = [("piece", "line", "deg", "physical", "cut", "")]
     for p in _pieces(h):
         name = f"arm {p.index}" if p.role == "arm" else "to feed"
-        rows.append((name, line_label(p.section), f"{p.section.electrical_deg:g} deg",
+        rows.append((name, line_label(p.section), f"{p.section.electrical_deg:g}",
                      fmt.length(p.section.physical_length_m, units, fraction),
                      fmt.length(p.cut.cut_length_m, units, fraction),
                      fmt.length(p.cut.cut_length_m, other, fraction)))
@@ -188,20 +189,14 @@ def _lines(h, span, allowance, units, fraction, fmt) -> list[str]:
         f"{fmt.frequency(r.worst_frequency_hz)}",
     ]
     ph = h.phase
-    f_lo, _, f_hi = ph.frequencies_hz
-
-    def spread(values):
-        lo, mid, hi = values
-        if not h.band_hz:
-            return f"{mid:.2f} deg"
-        return f"{lo:.2f} deg at {fmt.frequency(f_lo)}, {hi:.2f} deg at {fmt.frequency(f_hi)}"
-
-    lines += [
-        "arm-to-arm phase spread (worst case, two arms at opposite ends of a tolerance):",
-        f"  arms cut within +/- {fmt.length(ph.cut_tolerance_m, units, fraction)} "
-        f"from one roll: {spread(ph.cut_spread_deg)}",
-        f"  arms from rolls with VF +/- {ph.vf_tolerance * 100:.0f} %: "
-        f"{spread(ph.vf_spread_deg)}",
-        "  so cut every arm from one roll, side by side.",
-    ]
+    cols = slice(None) if h.band_hz else slice(1, 2)  # band edges and centre, or the centre
+    rows = [("", *(fmt.frequency(x) for x in ph.frequencies_hz[cols]), "")]
+    rows.append((f"cut within +/- {fmt.length(ph.cut_tolerance_m, units, fraction)}",
+                 *(f"{x:.2f}" for x in ph.cut_spread_deg[cols]), "deg, arms from one roll"))
+    rows.append((f"rolls with VF +/- {ph.vf_tolerance * 100:.0f} %",
+                 *(f"{x:.2f}" for x in ph.vf_spread_deg[cols]), "deg"))
+    lines.append("arm-to-arm phase spread, worst case (two arms at opposite ends of a "
+                 "tolerance):")
+    lines += ["  " + row for row in fmt.table(rows, right=tuple(range(1, len(rows[0]) - 1)))]
+    lines.append("Cut every arm from one roll, side by side.")
     return lines

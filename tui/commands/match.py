@@ -110,14 +110,15 @@ def run(args) -> int:
 
 def _lines(result, units, fraction, fmt) -> list[str]:
     f = fmt.frequency(result.frequency_hz)
-    band = (f", band {fmt.frequency(result.band_hz[0])} to {fmt.frequency(result.band_hz[1])}"
-            if result.band_hz else "")
     lines = [
         f"quarter-wave transformer from {fmt.impedance(result.z_source_ohm)} to "
-        f"{fmt.impedance(result.z_load_ohm)} at {f}{band}",
+        f"{fmt.impedance(result.z_load_ohm)} at {f}",
         f"ideal line impedance {fmt.impedance(result.ideal_impedance_ohm)}",
-        "",
     ]
+    if result.band_hz:
+        lines.append(f"worst VSWR across {fmt.frequency(result.band_hz[0])} to "
+                     f"{fmt.frequency(result.band_hz[1])}")
+    lines.append("")
     rows = [("line", "Z0", "quarter wave", "", "Z seen", "loss", "VSWR", "worst")]
     for c in result.candidates:
         s, r = c.section, c.response

@@ -106,22 +106,18 @@ def run(args) -> int:
         return fmt.length_both(v, units, fraction)
 
     end_word = "open" if args.end == "open" else "shorted"
+    what = f"a {presents}"
     if presents == "reactance":
-        sign = "+" if x > 0 else "-"
-        what = f"{sign}j{abs(x):.4g} ohm"
-        if x > 0:
-            what += f" (like {x / omega * 1e9:.4g} nH at this frequency)"
-        else:
-            what += f" (like {-1e12 / (omega * x):.4g} pF at this frequency)"
-    else:
-        what = f"a {presents}"
+        what = f"{'+' if x > 0 else '-'}j{abs(x):.4g} ohm"
     line_z0 = f"Z0 {fmt.impedance(z0)}, " if z0 else ""
-    lines = [
-        f"{end_word} stub presenting {what} at {fmt.frequency(frequency)}",
+    lines = [f"{end_word} stub presenting {what} at {fmt.frequency(frequency)}"]
+    if presents == "reactance":
+        like = (f"{x / omega * 1e9:.4g} nH" if x > 0 else f"{-1e12 / (omega * x):.4g} pF")
+        lines.append(f"(at this frequency only, like {like})")
+    lines += [
         f"line: {line_z0}VF {s.vf:.3f} from {resolved.source}",
         f"electrical length  {fmt.degrees(s.electrical_deg)}",
-        f"physical length    {both(s.physical_length_m)} from the input reference plane "
-        "to the end",
+        f"physical length    {both(s.physical_length_m)} to the far end",
     ]
     if allowance:
         lines.append(f"cut length         {both(c.cut_length_m)} after "
