@@ -40,11 +40,22 @@ STUB_PERIOD_DEG = 180.0
 #: Relative slack for float round-off when testing "is a whole multiple".
 _EPS = 1e-9
 
+#: Longest electrical length handled: 10 000 wavelengths (far beyond any cut list).
+MAX_ELECTRICAL_DEG = 3.6e6
+
 
 def _positive(value: float, name: str, example: str) -> float:
     if not (math.isfinite(value) and value > 0.0):
         raise InputError(name, f"{value:g} must be a positive finite number", example)
     return value
+
+
+def _electrical(deg: float, name: str = "electrical length", example: str = "90 deg") -> float:
+    _positive(deg, name, example)
+    if deg > MAX_ELECTRICAL_DEG:
+        raise InputError(name, f"{deg / 360.0:.4g} wavelengths is more than the "
+                         f"{MAX_ELECTRICAL_DEG / 360.0:.0f} this tool handles", example)
+    return deg
 
 
 def _vf(vf: float) -> float:
@@ -62,7 +73,7 @@ def wavelength_in_line_m(frequency_hz: float, vf: float) -> float:
 def physical_length_m(electrical_deg: float, frequency_hz: float, vf: float) -> float:
     """Physical length of ``electrical_deg`` at ``frequency_hz``:
     :math:`l = (\\theta/360)\\,VF\\,c_0/f`."""
-    _positive(electrical_deg, "electrical length", "90 deg")
+    _electrical(electrical_deg)
     return electrical_deg / 360.0 * wavelength_in_line_m(frequency_hz, vf)
 
 
@@ -174,7 +185,8 @@ def reach(span_m: float, frequency_hz: float, vf: float, kind: str, slack_m: flo
     if not (math.isfinite(slack_m) and slack_m >= 0.0):
         raise InputError("slack", f"{slack_m:g} m must be zero or more", "100 mm")
     wavelength = wavelength_in_line_m(frequency_hz, vf)
-    need_deg = max(360.0 * (span_m + slack_m) / wavelength, minimum_deg)
+    need_deg = _electrical(max(360.0 * (span_m + slack_m) / wavelength, minimum_deg), "span",
+                           "2.5 m")
     if unit is None:
         multiple, deg = None, need_deg
     else:
@@ -222,7 +234,7 @@ def plan_cut(frequency_hz: float, electrical_deg: float, vf: float, *,
     are then taken off each of the two ends (:func:`cut_length`).
     """
     wavelength = wavelength_in_line_m(frequency_hz, vf)
-    _positive(electrical_deg, "electrical length", "90 deg")
+    _electrical(electrical_deg)
     if kind is not None and not is_allowed(kind, electrical_deg):
         unit = KIND_UNIT_DEG[kind]
         what = ("an odd number of quarter waves (90, 270, 450 deg ...)" if kind == "transformer"
@@ -363,7 +375,7 @@ def trim_from_resonance(target_deg: float, frequency_hz: float, resonance_hz: fl
 
 def _trim(method: str, target_deg: float, frequency_hz: float, measured_deg: float,
           current_length_m: float | None) -> Trim:
-    _positive(target_deg, "electrical length", "90 deg")
+    _electrical(target_deg)
     vf = None
     if current_length_m is not None:
         _positive(current_length_m, "length", "400 mm")

@@ -42,10 +42,19 @@ BAND_POINTS = 201
 #: Impedance ratios closer than this count as equally near (log scale).
 _TIE = 1e-9
 
+#: Highest impedance a line section is asked to match (ohm).
+MAX_IMPEDANCE_OHM = 1e6
+
+#: Most antennas one harness junction joins.
+MAX_ANTENNAS = 64
+
 
 def _impedance(value: float, name: str) -> float:
     if not (isinstance(value, int | float) and math.isfinite(value) and value > 0.0):
         raise InputError(name, f"{value!r} is not a positive finite impedance", "50 ohm")
+    if value > MAX_IMPEDANCE_OHM:
+        raise InputError(name, f"{value:g} ohm is beyond what a line section matches "
+                         f"(at most {MAX_IMPEDANCE_OHM:g} ohm)", "50 ohm")
     return float(value)
 
 
@@ -345,8 +354,9 @@ def harness(antennas: int, antenna_z_ohm: float, feed_z_ohm: float, frequency_hz
     loss (one arm plus the transformer), then the lowest worst-band VSWR.
     Connector allowances come off both ends of every piece.
     """
-    if not isinstance(antennas, int) or antennas < 2:
-        raise InputError("antennas", f"{antennas!r}: a harness joins at least 2 antennas", "4")
+    if not isinstance(antennas, int) or not 2 <= antennas <= MAX_ANTENNAS:
+        raise InputError("antennas", f"{antennas!r}: a harness joins at least 2 and at most "
+                         f"{MAX_ANTENNAS} antennas", "4")
     za = _impedance(antenna_z_ohm, "antenna impedance")
     zf = _impedance(feed_z_ohm, "feed impedance")
     if topology not in TOPOLOGIES:

@@ -10,6 +10,8 @@ from __future__ import annotations
 import json
 
 import pytest
+from hypothesis import HealthCheck, given, settings
+from hypothesis import strategies as st
 
 from tui.cli import main
 
@@ -234,6 +236,35 @@ def test_bad_input_with_a_hazard_tagged_cable_is_still_one_line(capsys):
     code, out, err = run(capsys, "cut", "--degrees", "90", "--cable", "rg58", "--frequency",
                          "146 MHz", "--allowance", "1 m")
     assert code == 2 and len(err.strip().splitlines()) == 1
+
+
+FIELDS = [
+    # (command line with a placeholder "{}" for the typed text)
+    ["cut", "--frequency", "{}", "--degrees", "90", "--vf", "0.66"],
+    ["cut", "--frequency", "146 MHz", "--wavelengths", "{}", "--vf", "0.66"],
+    ["cut", "--frequency", "146 MHz", "--degrees", "90", "--vf", "0.66", "--allowance", "{}"],
+    ["cut", "--frequency", "146 MHz", "--degrees", "90", "--vf", "0.66", "--span", "{}",
+     "--kind", "repeater"],
+    ["match", "--from", "{}", "--to", "100", "--frequency", "146 MHz"],
+    ["match", "--from", "50", "--to", "100", "--frequency", "146 MHz", "--band", "{}"],
+    ["harness", "--antennas", "2", "--antenna-z", "{}", "--feed-z", "50", "--frequency",
+     "146 MHz"],
+    ["trim", "--frequency", "146 MHz", "--degrees", "90", "--length", "400 mm",
+     "--measured-delay", "{}"],
+    ["stub", "--frequency", "146 MHz", "--vf", "0.66", "--z0", "50", "--end", "open",
+     "--present", "{}"],
+]
+
+
+@settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.function_scoped_fixture])
+@given(template=st.sampled_from(FIELDS), text=st.text(max_size=30))
+def test_no_typed_text_gives_anything_but_a_result_or_a_clear_refusal(capsys, template, text):
+    if text.startswith("-") or "\x00" in text:  # argparse would read it as an option
+        return
+    code, out, err = run(capsys, *[text if a == "{}" else a for a in template])
+    assert code in (0, 2), err
+    if code == 2:
+        assert out == "" and len(err.strip().splitlines()) == 1
 
 
 # --- what a person reads fits an 80-column terminal ----------------------------------

@@ -64,8 +64,6 @@ def run(args) -> int:
     zf = parse(args.feed_z, "--feed-z", "impedance")
     frequency = parse(args.frequency, "--frequency", "frequency")
     band = band_of(args)
-    if args.antennas < 2:
-        raise InputError("--antennas", f"{args.antennas}: a harness joins 2 or more antennas", "4")
     span = None if args.span is None else parse(args.span, "--span", "length")
     if span is not None:
         reach_m = (args.antennas - 1) * span / 2.0
@@ -78,9 +76,8 @@ def run(args) -> int:
     if args.transformer_cable and args.topology != "half":
         raise InputError("--transformer-cable", "only --topology half has a transformer after "
                          "the junction", "rg58")
-    arm_cable = cable(args.cable, "--cable", warn=False) if args.cable else None
-    tr_cable = (cable(args.transformer_cable, "--transformer-cable", warn=False)
-                if args.transformer_cable else None)
+    arm_cable = _line_cable(args.cable, "--cable")
+    tr_cable = _line_cable(args.transformer_cable, "--transformer-cable")
     h = harness(args.antennas, za, zf, frequency, line_cables(args), topology=args.topology,
                 band_hz=band, arm_reach_m=reach_m, slack_m=slack, allowance_per_end_m=allowance,
                 cut_tolerance_m=tolerance, arm_cable=arm_cable, transformer_cable=tr_cable,
@@ -88,6 +85,19 @@ def run(args) -> int:
     warn_hazards([p.section.cable for p in _pieces(h)])
     return emit(args, _record(h, span, allowance, fraction, fmt),
                 _lines(h, span, allowance, units, fraction, fmt))
+
+
+def _line_cable(cable_id, field):
+    """A catalog cable to cut harness pieces from (never power cable), or None."""
+    from calc.errors import InputError
+
+    if cable_id is None:
+        return None
+    c = cable(cable_id, field, warn=False)
+    if c.category == "power":
+        raise InputError(field, f"{c.id} is power cable, not a line to cut harness pieces "
+                         "from", "rg59")
+    return c
 
 
 def _pieces(h) -> list:
