@@ -91,7 +91,7 @@ KINDS: dict[str, Kind] = {
 
 _WAVELENGTH_WORDS = ("wavelengths", "wavelength", "lambda", "wl", "λ")
 _NUMBER = r"[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?"
-_MIXED_FRACTION = re.compile(rf"(?<![\w.])(\d+)[\s-]+(\d+)/(\d+)(?![\w.])")
+_MIXED_FRACTION = re.compile(r"(?<![\w.])(\d+)[\s-]+(\d+)/(\d+)(?![\w.])")
 _SIMPLE_FRACTION = re.compile(r"(?<![\w./])(\d+)/(\d+)(?![\d./])")
 _FEET_INCHES = re.compile(
     rf"^\s*(?:(?P<ft>{_NUMBER})\s*(?:ft|feet|foot|')\s*)?"
