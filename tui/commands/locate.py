@@ -73,12 +73,12 @@ def _instrument_lines(loc, units: str, fraction: int) -> list[str]:
     lines = []
     if loc.resolution_m is not None:
         lines.append(_row("resolution", f"{fmt.length(loc.resolution_m, units, fraction)}"
-                                        f"  (rise time {fmt.time(loc.rise_time_s)}: events "
-                                        "closer than this merge)"))
+                                        f"  (rise time {fmt.time(loc.rise_time_s)}: closer "
+                                        "events merge)"))
     if loc.dead_zone_m is not None:
         lines.append(_row("dead zone", f"{fmt.length(loc.dead_zone_m, units, fraction)}"
-                                       f"  (pulse width {fmt.time(loc.pulse_width_s)}: "
-                                       "nearer events are hidden)"))
+                                       f"  (pulse width {fmt.time(loc.pulse_width_s)} hides "
+                                       "nearer events)"))
         if loc.in_dead_zone:
             lines.append("note: this event is inside the dead zone; the reading is doubtful")
     return lines
