@@ -110,13 +110,31 @@ def delay_from_distance_s(distance_m: float, vf: float) -> float:
 
 
 @dataclass(frozen=True)
-class Location:
-    """An event on one cable, as :func:`locate` places it.
+class InstrumentLimits:
+    """What the instrument's edge and pulse allow, at the event's cable.
 
-    ``resolution_m`` and ``dead_zone_m`` are None when no rise time or pulse
-    width was given; ``in_dead_zone`` says the event is nearer than the dead
-    zone (so the reading is doubtful).
+    ``resolution_m`` (from the rise time) and ``dead_zone_m`` (from the pulse
+    width) are None when that figure was not given; ``in_dead_zone`` says the
+    event is nearer than the dead zone, so the reading is doubtful.
     """
+
+    rise_time_s: float | None = None
+    pulse_width_s: float | None = None
+    resolution_m: float | None = None
+    dead_zone_m: float | None = None
+    in_dead_zone: bool = False
+
+
+def _limits(rise_time_s: float | None, pulse_width_s: float | None,
+            resolution_m: float | None, dead_zone_m: float | None,
+            distance_m: float) -> InstrumentLimits:
+    return InstrumentLimits(rise_time_s, pulse_width_s, resolution_m, dead_zone_m,
+                            dead_zone_m is not None and distance_m < dead_zone_m)
+
+
+@dataclass(frozen=True)
+class Location:
+    """An event on one cable, as :func:`locate` places it."""
 
     round_trip_delay_s: float
     vf: float
@@ -124,14 +142,7 @@ class Location:
     distance_m: float
     distance_low_m: float
     distance_high_m: float
-    rise_time_s: float | None = None
-    pulse_width_s: float | None = None
-    resolution_m: float | None = None
-    dead_zone_m: float | None = None
-
-    @property
-    def in_dead_zone(self) -> bool:
-        return self.dead_zone_m is not None and self.distance_m < self.dead_zone_m
+    instrument: InstrumentLimits = InstrumentLimits()
 
 
 def locate(delay_s: float, vf: float, vf_tolerance: float = 0.0,
@@ -155,17 +166,19 @@ def locate(delay_s: float, vf: float, vf_tolerance: float = 0.0,
     rise_time_s = _optional_positive(rise_time_s, "--rise-time")
     pulse_width_s = _optional_positive(pulse_width_s, "--pulse-width")
     vf_lo, vf_hi = vf_bounds(vf, vf_tolerance)
+    distance_m = distance_from_delay_m(delay_s, vf)
     return Location(
         round_trip_delay_s=delay_s,
         vf=vf,
         vf_tolerance=vf_tolerance,
-        distance_m=distance_from_delay_m(delay_s, vf),
+        distance_m=distance_m,
         distance_low_m=distance_from_delay_m(delay_s, vf_lo),
         distance_high_m=distance_from_delay_m(delay_s, vf_hi),
-        rise_time_s=rise_time_s,
-        pulse_width_s=pulse_width_s,
-        resolution_m=None if rise_time_s is None else distance_from_delay_m(rise_time_s, vf),
-        dead_zone_m=None if pulse_width_s is None else distance_from_delay_m(pulse_width_s, vf),
+        instrument=_limits(
+            rise_time_s, pulse_width_s,
+            None if rise_time_s is None else distance_from_delay_m(rise_time_s, vf),
+            None if pulse_width_s is None else distance_from_delay_m(pulse_width_s, vf),
+            distance_m),
     )
 
 
@@ -245,14 +258,7 @@ class RunLocation:
     beyond_nominal_end: bool
     total_length_m: float
     junctions: tuple[Junction, ...]
-    rise_time_s: float | None = None
-    pulse_width_s: float | None = None
-    resolution_m: float | None = None
-    dead_zone_m: float | None = None
-
-    @property
-    def in_dead_zone(self) -> bool:
-        return self.dead_zone_m is not None and self.distance_m < self.dead_zone_m
+    instrument: InstrumentLimits = InstrumentLimits()
 
 
 def _segment_vfs(segments: Sequence[RunSegment], which: str) -> list[float]:
@@ -382,10 +388,10 @@ def locate_in_run(delay_s: float, segments: Sequence[RunSegment],
         beyond_nominal_end=beyond,
         total_length_m=end.distance_m,
         junctions=junctions,
-        rise_time_s=rise_time_s,
-        pulse_width_s=pulse_width_s,
-        resolution_m=None if rise_time_s is None else distance_from_delay_m(rise_time_s, seg_vf),
-        dead_zone_m=dead_zone_m,
+        instrument=_limits(
+            rise_time_s, pulse_width_s,
+            None if rise_time_s is None else distance_from_delay_m(rise_time_s, seg_vf),
+            dead_zone_m, distance_m),
     )
 
 

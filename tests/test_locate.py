@@ -63,10 +63,10 @@ def test_resolution_and_dead_zone_hand_derived():
     # SI c0: v t_r / 2 = 0.66 x 0.299792458 m/ns x 2 ns / 2 = 0.197863022 m;
     # v t_pw / 2 with 10 ns = 0.989315111 m
     loc = locate(100e-9, 0.66, rise_time_s=2e-9, pulse_width_s=10e-9)
-    assert loc.resolution_m == pytest.approx(0.197863022, rel=1e-8)
-    assert loc.dead_zone_m == pytest.approx(0.989315111, rel=1e-8)
-    assert not loc.in_dead_zone
-    assert locate(5e-9, 0.66, pulse_width_s=10e-9).in_dead_zone
+    assert loc.instrument.resolution_m == pytest.approx(0.197863022, rel=1e-8)
+    assert loc.instrument.dead_zone_m == pytest.approx(0.989315111, rel=1e-8)
+    assert not loc.instrument.in_dead_zone
+    assert locate(5e-9, 0.66, pulse_width_s=10e-9).instrument.in_dead_zone
 
 
 def test_vacuum_rule_of_thumb():
@@ -160,7 +160,8 @@ def test_run_dead_zone_follows_the_cables():
     # a 30 ns pulse covers the 2 m jumper (20.216 ns) and then (30 - 20.216) ns in the
     # hardline: 2 m + 0.88 c0 x 9.783994 ns / 2 = 3.290594 m (SI c0, hand-derived)
     loc = locate_in_run(300e-9, ROOF_RUN, pulse_width_s=30e-9)
-    assert loc.dead_zone_m == pytest.approx(3.290594, rel=1e-6)
+    assert loc.instrument.dead_zone_m == pytest.approx(3.290594, rel=1e-6)
+    assert not loc.instrument.in_dead_zone
 
 
 def test_run_reverse_refuses_past_the_end():

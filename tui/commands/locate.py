@@ -66,31 +66,31 @@ def _span(low_m: float, high_m: float, units: str, fraction: int) -> str:
     return f"{fmt.length(low_m, units, fraction)} to {fmt.length(high_m, units, fraction)}"
 
 
-def _instrument_lines(loc, units: str, fraction: int) -> list[str]:
-    """Resolution and dead-zone lines, shared by the one-cable and run forms."""
+def _instrument_lines(limits, units: str, fraction: int) -> list[str]:
+    """Lines for a :class:`calc.locate.InstrumentLimits` (one cable and run forms)."""
     from tui import fmt
 
     lines = []
-    if loc.resolution_m is not None:
-        lines.append(_row("resolution", f"{fmt.length(loc.resolution_m, units, fraction)}"
-                                        f"  (rise time {fmt.time(loc.rise_time_s)}: closer "
+    if limits.resolution_m is not None:
+        lines.append(_row("resolution", f"{fmt.length(limits.resolution_m, units, fraction)}"
+                                        f"  (rise time {fmt.time(limits.rise_time_s)}: closer "
                                         "events merge)"))
-    if loc.dead_zone_m is not None:
-        lines.append(_row("dead zone", f"{fmt.length(loc.dead_zone_m, units, fraction)}"
-                                       f"  (pulse width {fmt.time(loc.pulse_width_s)} hides "
+    if limits.dead_zone_m is not None:
+        lines.append(_row("dead zone", f"{fmt.length(limits.dead_zone_m, units, fraction)}"
+                                       f"  (pulse width {fmt.time(limits.pulse_width_s)} hides "
                                        "nearer events)"))
-        if loc.in_dead_zone:
+        if limits.in_dead_zone:
             lines.append("note: this event is inside the dead zone; the reading is doubtful")
     return lines
 
 
-def _instrument_data(loc) -> dict:
+def _instrument_data(limits) -> dict:
     data = {}
-    if loc.resolution_m is not None:
-        data.update(rise_time_s=loc.rise_time_s, resolution_m=loc.resolution_m)
-    if loc.dead_zone_m is not None:
-        data.update(pulse_width_s=loc.pulse_width_s, dead_zone_m=loc.dead_zone_m,
-                    in_dead_zone=loc.in_dead_zone)
+    if limits.resolution_m is not None:
+        data.update(rise_time_s=limits.rise_time_s, resolution_m=limits.resolution_m)
+    if limits.dead_zone_m is not None:
+        data.update(pulse_width_s=limits.pulse_width_s, dead_zone_m=limits.dead_zone_m,
+                    in_dead_zone=limits.in_dead_zone)
     return data
 
 
@@ -110,7 +110,7 @@ def describe_location(loc, source: str, units: str = "metric", fraction: int = 1
     ]
     if loc.vf_tolerance == 0.0:
         lines.append("note: no VF tolerance, so no range; give one with --tolerance '3 %'")
-    return lines + _instrument_lines(loc, units, fraction)
+    return lines + _instrument_lines(loc.instrument, units, fraction)
 
 
 def describe_expected(pred, source: str, units: str = "metric", fraction: int = 16) -> list[str]:
@@ -149,7 +149,7 @@ def _one_cable(args, delay_s, distance_m, units, fraction) -> int:
     loc = core.locate(delay_s, vf, resolved.tolerance, rise, width)
     data = {"mode": "one-cable", **common, "round_trip_delay_s": loc.round_trip_delay_s,
             "distance_m": loc.distance_m, "distance_low_m": loc.distance_low_m,
-            "distance_high_m": loc.distance_high_m, **_instrument_data(loc)}
+            "distance_high_m": loc.distance_high_m, **_instrument_data(loc.instrument)}
     return emit(args, data, describe_location(loc, resolved.source, units, fraction))
 
 
@@ -211,15 +211,8 @@ def describe_run_location(loc, segments, units: str = "metric", fraction: int = 
         lines.append("note: later than the far end should show, but within the cables' VF "
                      "tolerance:")
         lines.append("      most likely the far end itself (or the run is longer than listed)")
-    return lines + _instrument_lines(loc, units, fraction) + describe_run(segments, units,
+    return lines + _instrument_lines(loc.instrument, units, fraction) + describe_run(segments, units,
                                                                          fraction)
-
-
-def _junction_record(j) -> dict:
-    return {"after_segment_index": j.after_segment_index, "cable_id": j.cable_id,
-            "distance_m": j.distance_m, "round_trip_delay_s": j.round_trip_delay_s,
-            "round_trip_delay_low_s": j.round_trip_delay_low_s,
-            "round_trip_delay_high_s": j.round_trip_delay_high_s, "is_far_end": j.is_far_end}
 
 
 def _in_run(args, delay_s, distance_m, units, fraction) -> int:
@@ -239,7 +232,7 @@ def _in_run(args, delay_s, distance_m, units, fraction) -> int:
     segments = parse_run_segments(args.run, tolerance)
     seg_data = [{"length_m": s.length_m, "cable_id": s.cable.id, "vf": s.cable.vf,
                  "vf_tolerance": s.cable.vf_tolerance} for s in segments]
-    junctions = [_junction_record(j) for j in core.run_junctions(segments)]
+    junctions = list(core.run_junctions(segments))  # emit() turns dataclasses into JSON
     if distance_m is not None:
         pred = core.run_delay_for_distance(distance_m, segments)
         warn_hazards([s.cable for s in segments])
@@ -258,7 +251,7 @@ def _in_run(args, delay_s, distance_m, units, fraction) -> int:
             "distance_low_m": loc.distance_low_m, "distance_high_m": loc.distance_high_m,
             "possible_segment_indices": list(loc.possible_segment_indices),
             "beyond_nominal_end": loc.beyond_nominal_end, "total_length_m": loc.total_length_m,
-            **_instrument_data(loc), "segments": seg_data, "junctions": junctions}
+            **_instrument_data(loc.instrument), "segments": seg_data, "junctions": junctions}
     return emit(args, data, describe_run_location(loc, segments, units, fraction))
 
 
@@ -291,6 +284,8 @@ def describe_two_ended(loc, cable_id: str | None, units: str = "metric",
 
 
 def _two_ended(args, units, fraction) -> int:
+    import dataclasses
+
     from calc import locate as core
     from calc.errors import InputError
     from calc.parse import parse
@@ -309,12 +304,7 @@ def _two_ended(args, units, fraction) -> int:
     loc = core.locate_two_ended(t_a, t_b, length_m,
                                 resolved.velocity.vf if resolved else None,
                                 resolved.tolerance if resolved else 0.0)
-    data = {"mode": "two-ended", "length_m": loc.length_m, "delay_from_a_s": loc.delay_from_a_s,
-            "delay_from_b_s": loc.delay_from_b_s, "distance_from_a_m": loc.distance_from_a_m,
-            "distance_from_b_m": loc.distance_from_b_m, "implied_vf": loc.implied_vf,
-            "catalog_vf": loc.catalog_vf, "vf_tolerance": loc.vf_tolerance,
-            "vf_disagreement": loc.vf_disagreement, "disagrees": loc.disagrees,
-            "cable_id": cable_id}
+    data = {"mode": "two-ended", **dataclasses.asdict(loc), "cable_id": cable_id}
     return emit(args, data, describe_two_ended(loc, cable_id, units, fraction))
 
 
