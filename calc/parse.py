@@ -224,7 +224,7 @@ def parse_complex_impedance(text: str, field: str) -> complex:
     if len(t) > MAX_INPUT_CHARS or not t:
         raise InputError(field, "an impedance is required", example)
     body = re.sub(r"\s*ohm\s*$", "", t).replace(" ", "")
-    body = re.sub(r"([+-])j(\d)", r"\g<1>\2j", body)  # 60-j40 -> 60-40j
+    body = re.sub(r"([+-])j(\d+(?:\.\d*)?(?:[eE][+-]?\d+)?)", r"\g<1>\2j", body)  # 60-j40 -> 60-40j
     if body.startswith("j"):
         body = body[1:] + "j"
     try:
