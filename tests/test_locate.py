@@ -8,10 +8,6 @@ power-cable fault-location practice (common practice).
 
 from __future__ import annotations
 
-import subprocess
-import sys
-from pathlib import Path
-
 import pytest
 from hypothesis import example, given
 from hypothesis import strategies as st
@@ -249,16 +245,3 @@ def test_two_ended_needs_no_velocity(length, where, vf):
     loc = locate_two_ended(t_a, t_b, length)
     assert loc.distance_from_a_m == pytest.approx(x, rel=1e-9, abs=1e-9 * length)
     assert loc.implied_vf == pytest.approx(vf, rel=1e-9)
-
-
-# ---------------------------------------------------------------- hygiene
-
-
-def test_core_modules_do_not_import_the_ui_or_pint():
-    code = ("import sys, calc.locate, calc.calibrate; "
-            "bad = [m for m in ('textual', 'rich', 'pint') if m in sys.modules]; "
-            "print(','.join(bad))")
-    root = Path(__file__).resolve().parents[1]
-    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
-                         check=True, cwd=root).stdout.strip()
-    assert out == ""
