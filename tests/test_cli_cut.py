@@ -12,6 +12,7 @@ import json
 import pytest
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
+from test_safety_wording import verdicts  # the project's wording rule (DEVELOPERS.md)
 
 from tui.cli import main
 
@@ -67,7 +68,7 @@ def test_cut_with_a_catalog_cable_shows_both_systems_and_the_caution(capsys):
                          "--cable", "rg58", "--fraction", "32")
     assert code == 0
     assert "339 mm" in out and "1 ft 1-11/32 in" in out  # 13.339 in to 1/32 (exact inch)
-    assert "caution" in err and "safe" not in err.lower()
+    assert "caution" in err and not verdicts(err)
 
 
 # --- match ---------------------------------------------------------------------------
@@ -291,7 +292,7 @@ def test_human_output_fits_80_columns_and_never_says_safe(capsys, argv):
     code, out, err = run(capsys, *argv)
     assert code == 0, err
     assert max(len(line) for line in out.splitlines()) <= 80, out
-    assert "safe" not in (out + err).lower()
+    assert not verdicts(out + err)
 
 
 def test_commands_are_loggable():
