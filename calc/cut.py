@@ -24,6 +24,7 @@ from dataclasses import dataclass
 
 from calc.constants import C0_M_PER_S
 from calc.errors import InputError
+from calc.locate import check_positive, check_tolerance, check_vf, faster_than_light
 from calc.tape import FeetInches, round_mm, to_feet_inches
 
 #: What a line is for, which fixes the lengths it may have (see :func:`reach`).
@@ -44,30 +45,18 @@ _EPS = 1e-9
 MAX_ELECTRICAL_DEG = 3.6e6
 
 
-def _positive(value: float, name: str, example: str) -> float:
-    if not (math.isfinite(value) and value > 0.0):
-        raise InputError(name, f"{value:g} must be a positive finite number", example)
-    return value
-
-
 def _electrical(deg: float, name: str = "electrical length", example: str = "90 deg") -> float:
-    _positive(deg, name, example)
+    check_positive(deg, name, example)
     if deg > MAX_ELECTRICAL_DEG:
         raise InputError(name, f"{deg / 360.0:.4g} wavelengths is more than the "
                          f"{MAX_ELECTRICAL_DEG / 360.0:.0f} this tool handles", example)
     return deg
 
 
-def _vf(vf: float) -> float:
-    if not (math.isfinite(vf) and 0.0 < vf <= 1.0):
-        raise InputError("velocity factor", f"{vf:g} is outside (0, 1]", "0.66")
-    return vf
-
-
 def wavelength_in_line_m(frequency_hz: float, vf: float) -> float:
     """One wavelength in the line: :math:`\\lambda = VF\\,c_0/f` (metres)."""
-    _positive(frequency_hz, "frequency", "146.52 MHz")
-    return _vf(vf) * C0_M_PER_S / frequency_hz
+    check_positive(frequency_hz, "frequency", "146.52 MHz")
+    return check_vf(vf) * C0_M_PER_S / frequency_hz
 
 
 def physical_length_m(electrical_deg: float, frequency_hz: float, vf: float) -> float:
@@ -80,7 +69,7 @@ def physical_length_m(electrical_deg: float, frequency_hz: float, vf: float) -> 
 def electrical_length_deg(length_m: float, frequency_hz: float, vf: float) -> float:
     """Electrical length in degrees of ``length_m`` at ``frequency_hz``:
     :math:`\\theta = 360\\,l\\,f/(VF\\,c_0)` (the reverse of :func:`physical_length_m`)."""
-    _positive(length_m, "length", "1.2 m")
+    check_positive(length_m, "length", "1.2 m")
     return 360.0 * length_m / wavelength_in_line_m(frequency_hz, vf)
 
 
@@ -113,7 +102,7 @@ def cut_length(physical_length_m: float, allowance_per_end_m: float = 0.0, ends:
     longer than the line). ``denominator`` is the tape's fraction of an inch
     (8, 16, 32...).
     """
-    _positive(physical_length_m, "length", "339 mm")
+    check_positive(physical_length_m, "length", "339 mm")
     if not (math.isfinite(allowance_per_end_m) and allowance_per_end_m >= 0.0):
         raise InputError("allowance", f"{allowance_per_end_m:g} m must be zero or more", "15 mm")
     if ends not in (1, 2):
@@ -181,7 +170,7 @@ def reach(span_m: float, frequency_hz: float, vf: float, kind: str, slack_m: flo
       ``minimum_deg``.
     """
     unit = KIND_UNIT_DEG[_kind(kind)]
-    _positive(span_m, "span", "2.5 m")
+    check_positive(span_m, "span", "2.5 m")
     if not (math.isfinite(slack_m) and slack_m >= 0.0):
         raise InputError("slack", f"{slack_m:g} m must be zero or more", "100 mm")
     wavelength = wavelength_in_line_m(frequency_hz, vf)
@@ -247,15 +236,9 @@ def plan_cut(frequency_hz: float, electrical_deg: float, vf: float, *,
         got = reach(span_m, frequency_hz, vf, kind or "delay", slack_m, electrical_deg)
         deg = got.electrical_deg
     physical = deg / 360.0 * wavelength
-    tol = physical * _relative_tolerance(vf_tolerance)
+    tol = physical * check_tolerance(vf_tolerance, "VF tolerance")
     return CutPlan(frequency_hz, vf, electrical_deg, deg, wavelength, physical, tol,
                    cut_length(physical, allowance_per_end_m, 2, denominator), got)
-
-
-def _relative_tolerance(vf_tolerance: float) -> float:
-    if not (math.isfinite(vf_tolerance) and 0.0 <= vf_tolerance < 1.0):
-        raise InputError("VF tolerance", f"{vf_tolerance:g} is outside [0, 1)", "3 %")
-    return vf_tolerance
 
 
 # --- stubs ---------------------------------------------------------------------------
@@ -307,7 +290,7 @@ def stub_length(frequency_hz: float, vf: float, end: str, reactance_ohm: float,
     else:
         if z0_ohm is None:
             raise InputError("Z0", "a reactance needs the stub line's Z0", "50 ohm")
-        ratio = reactance_ohm / _positive(z0_ohm, "Z0", "50 ohm")
+        ratio = reactance_ohm / check_positive(z0_ohm, "Z0", "50 ohm")
     deg = math.degrees(math.atan(ratio))  # in [-90, 90]
     if end == "open":
         deg += 90.0
@@ -348,8 +331,8 @@ def trim_from_delay(target_deg: float, frequency_hz: float, round_trip_s: float,
     The piece is :math:`\\theta_m = 360^\\circ f\\,t_{rt}/2` long now, so keep
     :math:`\\theta_t/\\theta_m` of it. With its length, :math:`VF = 2l/(c_0 t_{rt})`.
     """
-    _positive(round_trip_s, "measured delay", "3.7 ns")
-    _positive(frequency_hz, "frequency", "146.52 MHz")
+    check_positive(round_trip_s, "measured delay", "3.7 ns")
+    check_positive(frequency_hz, "frequency", "146.52 MHz")
     measured = 360.0 * frequency_hz * round_trip_s / 2.0
     return _trim("delay", target_deg, frequency_hz, measured, current_length_m)
 
@@ -366,9 +349,9 @@ def trim_from_resonance(target_deg: float, frequency_hz: float, resonance_hz: fl
     :math:`\\theta_t/\\theta_m` of it. With its length, for the quarter wave,
     :math:`VF = 4 l f_r / c_0`.
     """
-    _positive(resonance_hz, "measured resonance", "160 MHz")
-    _positive(frequency_hz, "frequency", "146.52 MHz")
-    _positive(resonance_deg, "resonance length", "90 deg")
+    check_positive(resonance_hz, "measured resonance", "160 MHz")
+    check_positive(frequency_hz, "frequency", "146.52 MHz")
+    check_positive(resonance_deg, "resonance length", "90 deg")
     measured = resonance_deg * frequency_hz / resonance_hz
     return _trim("resonance", target_deg, frequency_hz, measured, current_length_m)
 
@@ -378,9 +361,9 @@ def _trim(method: str, target_deg: float, frequency_hz: float, measured_deg: flo
     _electrical(target_deg)
     vf = None
     if current_length_m is not None:
-        _positive(current_length_m, "length", "400 mm")
+        check_positive(current_length_m, "length", "400 mm")
         vf = vf_from_electrical(current_length_m, measured_deg, frequency_hz)
-        if vf > 1.0 + _EPS:  # round-off at exactly VF 1 is not a complaint
+        if faster_than_light(vf):
             raise InputError(
                 f"measured {method}",
                 f"with a piece {current_length_m:g} m long the measurement implies VF "

@@ -30,6 +30,7 @@ from calc.cable import Cable, cable_propagation_constant
 from calc.constants import C0_M_PER_S
 from calc.cut import CutLength, cut_length, physical_length_m, reach
 from calc.errors import InputError
+from calc.locate import check_positive, check_tolerance
 from calc.tline import input_impedance, reflection_coefficient, vswr
 
 #: Harness topologies: every arm a quarter-wave transformer to N Z_feed, or
@@ -50,8 +51,7 @@ MAX_ANTENNAS = 64
 
 
 def _impedance(value: float, name: str) -> float:
-    if not (isinstance(value, int | float) and math.isfinite(value) and value > 0.0):
-        raise InputError(name, f"{value!r} is not a positive finite impedance", "50 ohm")
+    check_positive(value, name, "50 ohm")
     if value > MAX_IMPEDANCE_OHM:
         raise InputError(name, f"{value:g} ohm is beyond what a line section matches "
                          f"(at most {MAX_IMPEDANCE_OHM:g} ohm)", "50 ohm")
@@ -262,9 +262,8 @@ def phase_spread(arm: Section, frequency_hz: float, band_hz: np.ndarray,
     arm cable's catalog tolerance)."""
     if not (math.isfinite(cut_tolerance_m) and cut_tolerance_m >= 0.0):
         raise InputError("cut tolerance", f"{cut_tolerance_m:g} m must be zero or more", "2 mm")
-    t = arm.cable.vf_tolerance if vf_tolerance is None else vf_tolerance
-    if not (math.isfinite(t) and 0.0 <= t < 1.0):
-        raise InputError("VF tolerance", f"{t:g} is outside [0, 1)", "3 %")
+    t = check_tolerance(arm.cable.vf_tolerance if vf_tolerance is None else vf_tolerance,
+                        "VF tolerance")
     f = np.array([float(np.min(band_hz)), frequency_hz, float(np.max(band_hz))])
     cut = 2.0 * 360.0 * f * cut_tolerance_m / (arm.cable.vf * C0_M_PER_S)
     theta = arm.electrical_deg * f / frequency_hz
