@@ -17,6 +17,22 @@ from tui.widgets.warning_line import WarningLine
 SIZE = (80, 24)
 
 
+def _prefs_file(text: str):
+    path = preferences_path()
+    path.parent.mkdir(parents=True)
+    path.write_text(text, encoding="utf-8")
+    return path
+
+
+async def _notice_up(pilot) -> SafetyNotice:
+    await wait_for(pilot, lambda: isinstance(pilot.app.screen, SafetyNotice))
+    return pilot.app.screen
+
+
+async def _notice_gone(pilot) -> None:
+    await wait_for(pilot, lambda: not isinstance(pilot.app.screen, SafetyNotice))
+
+
 def _on_screen(widget) -> bool:
     """The widget is shown and lies wholly inside the 80x24 screen."""
     r = widget.region
@@ -26,13 +42,10 @@ def _on_screen(widget) -> bool:
 
 @pytest.mark.first_start
 async def test_notice_appears_on_first_start_and_is_remembered():
-    path = preferences_path()
-    path.parent.mkdir(parents=True)
-    path.write_text('units = "imperial"\n\n[log]\nlast_job = 4\n', encoding="utf-8")
+    path = _prefs_file('units = "imperial"\n\n[log]\nlast_job = 4\n')
     app = create_app()
     async with app.run_test(size=SIZE) as pilot:
-        await wait_for(pilot, lambda: isinstance(app.screen, SafetyNotice))
-        notice = app.screen
+        notice = await _notice_up(pilot)
         assert "lethal" in str(notice.query_one("#notice-title").render())
         assert _on_screen(notice.query_one("#notice-ack", Button))  # reachable at 80x24
         assert not notice.query("#notice-changed")
@@ -40,7 +53,7 @@ async def test_notice_appears_on_first_start_and_is_remembered():
         await pilot.pause()
         assert app.screen is notice and safety.notice_needed()
         await pilot.press("enter")  # the acknowledge button has the focus
-        await wait_for(pilot, lambda: not isinstance(app.screen, SafetyNotice))
+        await _notice_gone(pilot)
     data = tomllib.loads(path.read_text(encoding="utf-8"))
     assert data["safety"]["acknowledged_text_version"] == safety.text_version()
     assert data["units"] == "imperial" and data["log"] == {"last_job": 4}  # kept
@@ -53,28 +66,22 @@ async def test_notice_appears_on_first_start_and_is_remembered():
 
 @pytest.mark.first_start
 async def test_notice_returns_when_the_caution_text_changes():
-    path = preferences_path()
-    path.parent.mkdir(parents=True)
-    path.write_text('[safety]\nacknowledged_text_version = "an-older-text"\n', encoding="utf-8")
-    app = create_app()
-    async with app.run_test(size=SIZE) as pilot:
-        await wait_for(pilot, lambda: isinstance(app.screen, SafetyNotice))
-        assert "changed" in str(app.screen.query_one("#notice-changed").render())
+    _prefs_file('[safety]\nacknowledged_text_version = "an-older-text"\n')
+    async with create_app().run_test(size=SIZE) as pilot:
+        notice = await _notice_up(pilot)
+        assert "changed" in str(notice.query_one("#notice-changed").render())
         await pilot.click("#notice-ack")
-        await wait_for(pilot, lambda: not isinstance(app.screen, SafetyNotice))
+        await _notice_gone(pilot)
     assert not safety.notice_needed()
 
 
 @pytest.mark.first_start
 async def test_unwritable_preferences_keep_showing_the_notice_and_are_left_alone():
-    path = preferences_path()
-    path.parent.mkdir(parents=True)
-    path.write_text("units = [[[", encoding="utf-8")
-    app = create_app()
-    async with app.run_test(size=SIZE) as pilot:
-        await wait_for(pilot, lambda: isinstance(app.screen, SafetyNotice))
+    path = _prefs_file("units = [[[")
+    async with create_app().run_test(size=SIZE) as pilot:
+        await _notice_up(pilot)
         await pilot.press("enter")
-        await wait_for(pilot, lambda: not isinstance(app.screen, SafetyNotice))
+        await _notice_gone(pilot)
     assert path.read_text(encoding="utf-8") == "units = [[["
     assert safety.notice_needed()
 
@@ -114,7 +121,7 @@ async def test_choosing_a_hazard_tagged_cable_shows_the_warning_line():
     app = create_app(start_panel="cables")
     async with app.run_test(size=SIZE) as pilot:
         await started(pilot)
-        warning = app.query_one("#cables", ).query_one(WarningLine)
+        warning = app.query_one("#cables").query_one(WarningLine)
         await type_into(pilot, "cables-filter", "rg174")  # no hazard tags
         await wait_for(pilot, lambda: app.query_one("#cables").selected() is not None)
         assert not warning.display
