@@ -87,30 +87,45 @@ def catalog():
     return cat
 
 
-def cable(cable_id: str, field: str = "--cable"):
-    """A catalog cable by id, or an InputError naming near matches."""
+def cable(cable_id: str, field: str = "--cable", warn: bool = True):
+    """A catalog cable by id, or an InputError naming near matches.
+
+    ``warn=False`` leaves the hazard caution to the caller (``warn_hazards``),
+    for commands that print it only once their input has all been accepted.
+    """
+    found = find_cable(catalog(), cable_id, field)
+    if warn:
+        warn_hazards([found])
+    return found
+
+
+def find_cable(cat, cable_id: str, field: str):
+    """``cat.get(cable_id)`` as an InputError naming ``field`` (CLI and TUI)."""
     try:
-        found = catalog().get(cable_id)
+        return cat.get(cable_id)
     except KeyError as exc:
         raise InputError(field, exc.args[0], "rg58") from None
-    warn_hazards([found])
-    return found
+
+
+def caution_line(tags) -> str | None:
+    """The one-line caution for hazard ``tags`` (None when there are none)."""
+    tags = sorted(set(tags))
+    if not tags:
+        return None
+    try:
+        from tui.safety import one_line_caution
+    except ImportError:
+        return ("caution: this cable type may be energized ("
+                + ", ".join(tags) + "); treat it as live until a qualified person has "
+                "proven otherwise, and follow local codes and site procedures.")
+    return one_line_caution(tags)
 
 
 def warn_hazards(cables) -> None:
     """One caution line on stderr for any hazard-tagged cable used by a command."""
-    tags = sorted({t for c in cables if c is not None for t in c.hazards})
-    if not tags:
-        return
-    try:
-        from tui.safety import one_line_caution
-    except ImportError:
-        line = ("caution: this cable type may be energized ("
-                + ", ".join(tags) + "); treat it as live until a qualified person has "
-                "proven otherwise, and follow local codes and site procedures.")
-    else:
-        line = one_line_caution(tags)
-    print(f"halftrip: {line}", file=sys.stderr)
+    line = caution_line(t for c in cables if c is not None for t in c.hazards)
+    if line:
+        print(f"halftrip: {line}", file=sys.stderr)
 
 
 VELOCITY_OPTIONS = (
@@ -145,8 +160,12 @@ class ResolvedVelocity:
     source: str  # what the velocity came from, for people
 
 
-def resolve_velocity(args, tolerance_text: str | None = None) -> ResolvedVelocity | None:
-    """The velocity the user asked for, or None if no velocity option was given."""
+def resolve_velocity(args, tolerance_text: str | None = None,
+                     warn: bool = True) -> ResolvedVelocity | None:
+    """The velocity the user asked for, or None if no velocity option was given.
+
+    ``warn`` is passed to :func:`cable`.
+    """
     from calc import velocity as vel
     from calc.parse import parse
 
@@ -158,7 +177,7 @@ def resolve_velocity(args, tolerance_text: str | None = None) -> ResolvedVelocit
         if text is None:
             continue
         if flag == "--cable":
-            c = cable(text)
+            c = cable(text, warn=warn)
             return ResolvedVelocity(vel.from_vf(c.vf), c,
                                     c.vf_tolerance if tolerance is None else tolerance,
                                     f"catalog cable {c.id} (VF {c.vf:g})")
@@ -166,3 +185,34 @@ def resolve_velocity(args, tolerance_text: str | None = None) -> ResolvedVelocit
         v = vel.from_vf(vel.vf_from(conv, value), flag)
         return ResolvedVelocity(v, None, tolerance or 0.0, f"{flag} {text}")
     return None
+
+
+def add_electrical_length_options(parser: argparse.ArgumentParser):
+    """``--degrees D | --wavelengths W`` (one required); returns the group so a
+    command can add another way to give the length."""
+    group = parser.add_mutually_exclusive_group(required=True)
+    group.add_argument("--degrees", metavar="D", help="electrical length in degrees, e.g. 90")
+    group.add_argument("--wavelengths", metavar="W",
+                       help="electrical length in wavelengths, e.g. 0.25")
+    return group
+
+
+def electrical_length_deg(args) -> float | None:
+    """The electrical length from ``--degrees``/``--wavelengths`` in degrees, or None."""
+    from calc.parse import parse
+
+    if getattr(args, "degrees", None) is not None:
+        return parse(args.degrees, "--degrees", "angle")
+    text = getattr(args, "wavelengths", None)
+    if text is None:
+        return None
+    try:
+        float(text)
+    except ValueError:  # has a unit of its own ("0.25 wl", "90 deg")
+        pass
+    else:
+        text = f"{text} wl"
+    try:
+        return parse(text, "--wavelengths", "angle")
+    except InputError as exc:
+        raise InputError("--wavelengths", exc.problem, "0.25") from None
