@@ -157,7 +157,7 @@ class Prediction:
     time_s: np.ndarray
     distance_m: np.ndarray
     level: np.ndarray
-    arrivals: tuple[Arrival, ...]
+    arrivals: tuple[Arrival, ...]  # those that arrive within the span, in time order
     rise_time_s: float = math.nan
     pulse_width_s: float | None = None
     source_z_ohm: float = math.nan
@@ -1004,7 +1004,8 @@ def simulate(
     time = np.arange(n) * dt - t_pre
     level = level + _cubic_at(time, -t_pre, dt_lo, slow)
 
-    arrivals = _finish_arrivals(bounces, segments, junctions, settle, tr, bool(pulse))
+    arrivals = tuple(a for a in _finish_arrivals(bounces, segments, junctions, settle, tr,
+                                                  bool(pulse)) if a.time_s <= span)
     return Prediction(
         time_s=time, distance_m=distance_from_round_trip(time, segments), level=level,
         arrivals=arrivals, rise_time_s=tr, pulse_width_s=pulse_width_s, source_z_ohm=zs,
