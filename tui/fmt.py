@@ -170,3 +170,10 @@ def text_plot(x, y, width: int = 72, height: int = 11, x_label=None) -> list[str
         gap = max(1, (width - len(left) - len(mid) - len(right)) // 2)
         lines.append(" " * 8 + left + " " * gap + mid + " " * gap + right)
     return lines
+
+
+def wrapped(line: str, indent: int = 19, width: int = 79) -> list[str]:
+    """One line of text folded to ``width`` columns, later lines indented by ``indent``."""
+    import textwrap
+
+    return textwrap.wrap(line, width=width, subsequent_indent=" " * indent) or [""]
