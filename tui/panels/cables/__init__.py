@@ -50,9 +50,7 @@ class Panel(Vertical):
     def _refill(self, ready: bool = True) -> None:
         table = self.query_one(CableTable)
         if self.app.catalog is None:
-            table.loading = True
             return
-        table.loading = False
         table.fill(self.app.catalog, self.query_one("#cables-filter", Input).value)
 
     def on_input_changed(self, event: Input.Changed) -> None:
