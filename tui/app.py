@@ -23,7 +23,7 @@ from textual.reactive import reactive
 from textual.widgets import ContentSwitcher, Footer
 
 from tui.panels import PanelSpec, discover
-from tui.prefs import Preferences, changed, load_preferences, save_preferences, with_section
+from tui.prefs import Preferences, changed, load_preferences, update_preferences, with_section
 from tui.widgets.panel_bar import PanelBar
 
 #: Keys of the app itself (panel keys are added from the panel modules).
@@ -171,26 +171,30 @@ class HalftripApp(App[int]):
         self.run_action(f"open_panel('{message.name}')")
 
     # ------------------------------------------------------------ preferences
-    def set_prefs(self, prefs: Preferences) -> None:
-        """Keep ``prefs`` and write them; a failure is shown, never raised."""
-        self.prefs = prefs
-        problem = save_preferences(prefs, self.prefs_path)
-        if problem:
+    def change_prefs(self, sections: dict[str, dict] | None = None, **typed) -> None:
+        """Change preferences and write just those to the file (see
+        :func:`tui.prefs.update_preferences`); a failure is shown, never raised."""
+        prefs, problem = update_preferences(self.prefs_path, sections, **typed)
+        if problem:  # keep the change for this session anyway
+            prefs = changed(self.prefs, **typed)
+            for name, values in (sections or {}).items():
+                prefs = with_section(prefs, name, **values)
             self.notify(f"Preferences not saved: {problem}", severity="warning")
+        self.prefs = prefs
 
     def update_section(self, name: str, **values) -> None:
         """Set keys in module ``name``'s table of the preferences and save."""
-        self.set_prefs(with_section(self.prefs, name, **values))
+        self.change_prefs({name: values})
 
     def remember_cable(self, cable_id: str) -> None:
         """The cable last chosen anywhere (new fields start with it)."""
         if cable_id and cable_id != self.prefs.last_cable:
-            self.set_prefs(changed(self.prefs, last_cable=cable_id))
+            self.change_prefs(last_cable=cable_id)
 
     def set_units(self, units: str, fraction: int | None = None) -> None:
         """Switch every shown length to ``units`` at once, and remember it."""
         fraction = fraction or self.prefs.fraction
-        self.set_prefs(changed(self.prefs, units=units, fraction=fraction))
+        self.change_prefs(units=units, fraction=fraction)
         self.unit_system = (units, fraction)
 
     def action_switch_units(self) -> None:
@@ -206,7 +210,7 @@ class HalftripApp(App[int]):
 
     def watch_theme(self, theme: str) -> None:
         if self.is_mounted and theme != self.prefs.theme:
-            self.set_prefs(changed(self.prefs, theme=theme))
+            self.change_prefs(theme=theme)
 
     # ------------------------------------------------------------- help, keys
     def action_help(self) -> None:

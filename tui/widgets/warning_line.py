@@ -8,9 +8,9 @@ from textual.widgets import Static
 class WarningLine(Static):
     """One line naming the hazards of the cables in use; hidden when there are none.
 
-    Panels call :meth:`set_hazards` with catalog hazard tags. The wording comes
-    from ``tui.commands.common.caution_line`` (which defers to the safety
-    module when it is present), the same line the CLI prints.
+    Panels call :meth:`set_hazards` with catalog hazard tags (and
+    ``possibly_live`` when the user has marked the line so). The wording is
+    :func:`tui.safety.warning_line`, kept with the other cautions.
     """
 
     def __init__(self) -> None:
@@ -20,10 +20,10 @@ class WarningLine(Static):
     def on_mount(self) -> None:
         self.display = False
 
-    def set_hazards(self, tags) -> None:
-        from tui.commands.common import caution_line
+    def set_hazards(self, tags, possibly_live: bool = False) -> None:
+        from tui.safety import warning_line
 
-        self.tags = tuple(sorted(set(tags)))
-        line = caution_line(self.tags)
+        self.tags = tuple(dict.fromkeys(tags))
+        line = warning_line(self.tags, possibly_live)
         self.display = bool(line)
-        self.update(line or "")
+        self.update(line)
