@@ -91,7 +91,7 @@ class HalftripApp(App[int]):
 
     def _after_first_frame(self) -> None:
         if self._start_panel:
-            self._focus_in(self.query_one(f"#{self._start_panel}"))
+            self.focus_first_field(self.query_one(f"#{self._start_panel}"))
         for problem in self.prefs.problems:
             self.notify(problem, title="Preferences", severity="warning", timeout=10)
         self._load_core()
@@ -152,10 +152,14 @@ class HalftripApp(App[int]):
         widget = await self.panel(name)
         self.query_one("#panels", ContentSwitcher).current = name
         self.query_one(PanelBar).current = name
-        self.call_after_refresh(self._focus_in, widget)
+        self.call_after_refresh(self.focus_first_field, widget)
 
-    def _focus_in(self, widget) -> None:
-        first = next((w for w in widget.query("*") if w.focusable), None)
+    def focus_first_field(self, widget) -> None:
+        """The cursor into the panel's first shown text field (else its first stop)."""
+        from textual.widgets import Input
+
+        shown = [w for w in widget.query("*") if w.focusable and w.is_on_screen]
+        first = next((w for w in shown if isinstance(w, Input)), shown[0] if shown else None)
         if first is not None:
             first.focus()
 
@@ -220,9 +224,20 @@ class HalftripApp(App[int]):
             self.push_screen(HelpScreen(key_table(self)))
 
     def action_back_out(self) -> None:
-        """Escape: from a field back to the panel bar (modal screens close themselves)."""
+        """Escape, one step out each time: from a field to the panel's tabs (if it
+        has them), from there to the panel bar. Dialogs close themselves."""
+        from textual.widgets import Tabs
+
         bar = self.query_one(PanelBar)
-        if self.focused is not bar:
+        focused = self.focused
+        panel = self.query_one("#panels", ContentSwitcher).visible_content
+        if focused is None or focused is bar or panel is None:
+            bar.focus()
+            return
+        tabs = next(iter(panel.query(Tabs)), None)
+        if tabs is not None and focused is not tabs and panel in focused.ancestors:
+            tabs.focus()
+        else:
             bar.focus()
 
     def get_system_commands(self, screen):

@@ -28,7 +28,7 @@ class Panel(Vertical):
     """The catalog table with a filter, the chosen cable in full below it."""
 
     BINDINGS = [
-        Binding("a", "new_cable", "New cable", id="cables.new"),
+        Binding("ctrl+n,a", "new_cable", "New cable", id="cables.new"),
         Binding("m", "measured_vf", "Save measured VF", id="cables.measured"),
         Binding("n", "copy_cable", "Copy as new", id="cables.copy"),
     ]
