@@ -49,7 +49,7 @@ def _scaled(value: float, unit: str, steps: tuple[tuple[float, str], ...], digit
 
 
 def time(t_s: float, digits: int = 4) -> str:
-    return _scaled(t_s, "s", ((1.0, ""), (1e-3, "m"), (1e-6, "us"), (1e-9, "ns"), (1e-12, "ps")), digits)
+    return _scaled(t_s, "s", ((1.0, ""), (1e-3, "m"), (1e-6, "u"), (1e-9, "n"), (1e-12, "p")), digits)
 
 
 def frequency(f_hz: float, digits: int = 6) -> str:
