@@ -92,18 +92,15 @@ def _read_bytes(path_text: str) -> bytes:
         raise InputError(path_text, f"cannot read it ({exc.strerror or exc})") from None
 
 
-def _run(text: str, field: str, tolerance: float | None):
-    import dataclasses
-
-    from calc.run import RunSegment, parse_run
+def _run(text: str, field: str, tolerance: float | None = None):
+    """A run from the catalog (hazard cautions on stderr); ``tolerance`` overrides each VF's."""
+    from calc.run import parse_run
     from tui.commands.common import catalog, warn_hazards
+    from tui.commands.locate import parse_run_segments
 
-    segments = parse_run(text, catalog().get, field)
+    segments = parse_run_segments(text, tolerance) if field == "--run" else \
+        parse_run(text, catalog().get, field)
     warn_hazards([s.cable for s in segments])
-    if tolerance is not None:
-        segments = tuple(RunSegment(s.length_m, dataclasses.replace(s.cable,
-                                                                    vf_tolerance=tolerance))
-                         for s in segments)
     return segments
 
 
@@ -267,14 +264,25 @@ def _kind_text(kind: str) -> str:
 
 
 def _where(e, units: str, fraction: int) -> str:
+    """The second line of an event: range, segment, or past the end."""
     from tui import fmt
 
     if e.distance_m is None:
-        return "-"
-    text = fmt.length(e.distance_m, units, fraction)
+        return ""
     if e.beyond_end:
-        return text + " (past the end)"
-    return text
+        return "past the far end of the described run" + \
+            (" (at the end, within the cables' tolerance)" if e.at_far_end else "")
+    parts = []
+    if e.distance_low_m is not None and e.distance_high_m is not None \
+            and e.distance_high_m > e.distance_low_m:
+        parts.append(f"{fmt.length(e.distance_low_m, units, fraction)} to "
+                     f"{fmt.length(e.distance_high_m, units, fraction)}")
+    if e.segment_index is not None:
+        parts.append(f"segment {e.segment_index + 1} ({e.cable_id}), "
+                     f"{fmt.length(e.offset_in_segment_m, units, fraction)} into it")
+    if e.at_far_end:
+        parts.append("at the far end")
+    return "; ".join(parts)
 
 
 def describe(info: dict, notes: list[str], analysis, units: str, fraction: int) -> list[str]:
@@ -298,15 +306,17 @@ def describe(info: dict, notes: list[str], analysis, units: str, fraction: int) 
                      f"{fmt.time(max(a.start_delay_s, 0.0))} and {fmt.time(a.end_delay_s)}")
     else:
         lines.append("")
-        lines.append(f"{'#':>2}  {'delay':>10}  {'distance':>18}  {'size':>7}  {'Z':>9}  "
-                     f"{'kind':<17} conf")
+        lines.append(f"{'#':>2}  {'delay':>10}  {'distance':>15}  {'size':>7}  {'Z ohm':>7}  "
+                     f"{'kind':<17} {'conf':>4}")
         for i, e in enumerate(a.events, start=1):
             z = "open" if e.impedance_ohm == float("inf") else f"{e.impedance_ohm:.4g}"
-            lines.append(f"{i:>2}  {fmt.time(e.round_trip_delay_s):>10}  "
-                         f"{_where(e, units, fraction):>18}  {e.size:+7.3f}  {z:>9}  "
-                         f"{_kind_text(e.kind):<17} {e.confidence:.2f}")
-            lines += textwrap.wrap(e.description, _WIDTH, initial_indent="    ",
-                                   subsequent_indent="    ")
+            dist = "-" if e.distance_m is None else fmt.length(e.distance_m, units, fraction)
+            lines.append(f"{i:>2}  {fmt.time(e.round_trip_delay_s):>10}  {dist:>15}  "
+                         f"{e.size:+7.3f}  {z:>7}  {_kind_text(e.kind):<17} {e.confidence:4.2f}")
+            where = _where(e, units, fraction)
+            for text in ([where] if where else []) + [e.description]:
+                lines += textwrap.wrap(text, _WIDTH, initial_indent="    ",
+                                       subsequent_indent="    ")
     for note in list(a.notes) + notes:
         lines += textwrap.wrap("note: " + note, _WIDTH, subsequent_indent="      ")
     return lines
