@@ -178,8 +178,9 @@ def _numeric_table(b: bytes, start: int, delimiter: str | None, ncol: int, name:
     if delimiter == ";":
         if re.search(rb"(?m)^[ \t]*;", body):
             body = re.sub(rb"(?m)^[ \t]*;[^\n]*", b"", body)
-        body = body.replace(b"!", b"#")
-    else:
+        if b"!" in body:
+            body = body.replace(b"!", b"#")
+    elif b"!" in body or b";" in body:
         body = body.translate(_BANG_SEMI_TO_HASH)
     first_line = b.count(b"\n", 0, start) + 1
     try:
@@ -357,8 +358,8 @@ def read_trace(data: bytes | str, name: str = "FILE", *, time_unit: str | None =
         raise InputError(where, "no data rows (the file is empty or holds only text)",
                          HEADER_EXAMPLE)
     where_data = f"{name} line {first_data_line}"
-    first_text = _decode(b[data_start:b.find(b"\n", data_start) if b"\n" in b[data_start:]
-                           else len(b)]).strip()
+    line_end = b.find(b"\n", data_start)
+    first_text = _decode(b[data_start:line_end if line_end >= 0 else len(b)]).strip()
     first_fields = _split(first_text, delimiter)
     decimal_comma = delimiter != "," and any("," in f for f in first_fields)
     if decimal_comma:
