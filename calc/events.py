@@ -72,7 +72,7 @@ UNIFORM_TOLERANCE = 0.01
 OPEN_SHORT_LEVEL = 0.8
 
 KINDS = ("open", "short", "higher_impedance", "lower_impedance", "capacitive_dip",
-         "inductive_bump", "capacitive_load", "inductive_load", "end_of_run")
+         "inductive_bump", "capacitive_load", "inductive_load", "end_of_run", "re_reflection")
 
 
 @dataclass(frozen=True)
@@ -274,7 +274,8 @@ def find_incident_edge(time_s: np.ndarray, level: np.ndarray) -> tuple[IncidentE
 
 def analyse(time_s: np.ndarray, level: np.ndarray, *, z0_ohm: float = 50.0,
             incident_edge: bool = True, rise_time_s: float | None = None,
-            ringing: float = 0.0, max_events: int = MAX_EVENTS) -> Analysis:
+            ringing: float = 0.0, min_size: float = MIN_EVENT_SIZE,
+            max_events: int = MAX_EVENTS) -> Analysis:
     """Find the events on a trace (module doc). ``incident_edge`` False means
     ``level`` is already rho with the reference plane at t = 0.
 
@@ -282,7 +283,8 @@ def analyse(time_s: np.ndarray, level: np.ndarray, *, z0_ohm: float = 50.0,
     there is one; estimated from the largest edge otherwise). ``ringing`` is
     the fraction of a step that a transform's window leaves as ripple near it
     (0 for a recorded trace); ripple within that fraction of a nearby larger
-    event is not reported.
+    event is not reported. ``min_size`` is the smallest step reported
+    whatever the noise (rho).
     """
     t = np.asarray(time_s, dtype=float)
     v = np.asarray(level, dtype=float)
@@ -322,10 +324,10 @@ def analyse(time_s: np.ndarray, level: np.ndarray, *, z0_ohm: float = 50.0,
     sigma_d = _mad_sigma(span)
     noise_rms = _mad_sigma(np.diff(rho[lo:hi])) / math.sqrt(2.0)
     k = math.sqrt(2.0 * math.log(max(span.size / w, 2.0))) + 1.5
-    threshold = max(k * sigma_d, MIN_EVENT_SIZE)
+    threshold = max(k * sigma_d, min_size)
     mask = np.zeros(rho.size, dtype=bool)
     mask[lo:hi] = np.abs(span) > threshold
-    groups = _groups(mask, d, gap=2 * a + w)
+    groups = _groups(mask, d, 2 * a + w, threshold)
     smooth = _box(rho, max(1, int(n_rise // 3)))
     events: list[Event] = []
     window = max(w, 4)
@@ -370,22 +372,34 @@ def _estimate_rise(t: np.ndarray, r: np.ndarray) -> float:
     return max(0.8 * width * dt, dt)
 
 
-def _groups(mask: np.ndarray, d: np.ndarray, gap: int) -> list[tuple[int, int]]:
-    """Runs of True in ``mask`` (inclusive bounds), joined when closer than ``gap``."""
+def _groups(mask: np.ndarray, d: np.ndarray, gap: int, threshold: float
+            ) -> list[tuple[int, int]]:
+    """Runs of True in ``mask`` (inclusive bounds), joined into events.
+
+    Two runs join when the gap between them is at most ``gap`` (the filter's
+    own span: a brief bump shows as two opposite lobes), or when the later
+    run is faint (its peak below 3 thresholds), has the same sign, and the
+    gap is at most half the length of the event so far (a step dispersed by
+    cable loss keeps creeping the same way for a while).
+    """
     m = mask.astype(np.int8)
     edges = np.diff(np.concatenate(([0], m, [0])))
     starts = np.flatnonzero(edges == 1)
     ends = np.flatnonzero(edges == -1) - 1
     if starts.size == 0:
         return []
-    join = starts[1:] - ends[:-1] <= gap
+    signs = np.sign(d[starts])
+    faint = np.maximum.reduceat(np.abs(d), starts) < 3.0 * threshold
     out = []
-    s = int(starts[0])
-    for k in range(join.size):
-        if not join[k]:
-            out.append((s, int(ends[k])))
-            s = int(starts[k + 1])
-    out.append((s, int(ends[-1])))
+    s, e, sign = int(starts[0]), int(ends[0]), signs[0]
+    for k in range(1, starts.size):
+        space = int(starts[k]) - e
+        if space <= gap or (faint[k] and signs[k] == sign and space <= (e - s) // 2):
+            e = int(ends[k])
+            continue
+        out.append((s, e))
+        s, e, sign = int(starts[k]), int(ends[k]), signs[k]
+    out.append((s, e))
     return out
 
 
@@ -412,7 +426,8 @@ def _measure(t, rho, smooth, d, s, e, prev_end, next_start, window, t_zero, sigm
         shape = "bump" if excursion > 0 else "dip"
         time = _peak_time(t, smooth, i_peak)
         size = excursion
-        area = float(np.sum(rho[s:e + 1] - 0.5 * (before + after)) * dt)
+        tail = min(e + 1 + 2 * (e - s + 1), next_start, rho.size)  # slow tails of reactances
+        area = float(np.sum(rho[s:tail] - before) * dt)
         level_for_z = peak
     else:
         opposite = excursion * net < 0  # swings one way, ends the other
@@ -492,24 +507,29 @@ class Verdict:
 
 
 def classify(ev: Event, z0_ohm: float, *, loss_scale: float = 1.0, is_last: bool = False,
-             at_far_end: bool = False) -> Verdict:
+             at_far_end: bool = False, after_end: bool = False) -> Verdict:
     """Name an event from its shape and level.
 
     ``loss_scale`` (0..1] is the fraction of a full reflection that survives
     the cable in front of the event at the trace's edge speed (1 when
     unknown or lossless): a step is divided by it before being compared
     with the open/short limits. ``at_far_end`` says the event sits at the far
-    end of the described run; ``is_last`` that nothing follows it.
+    end of the described run; ``is_last`` that nothing follows it;
+    ``after_end`` that it comes after an open or a short, or past the far
+    end of the described run, where nothing further down the cable can show.
 
     Rules (common practice of trace reading):
 
+    * after an open, a short or the run's far end: a re-reflection, a second
+      trip between two mismatches;
     * level reaching at least +0.8 (Z >= 9 Z0) after a rise: an open, or a
       very high impedance; at most -0.8 after a fall: a short;
     * any other lasting rise: a higher-impedance section (or, at the end, a
       load above Z0); a fall: a lower-impedance section (wet or crushed
       cable, a different cable, or a load below Z0);
     * a brief bump: series inductance (or a short higher-impedance piece);
-      a brief dip: shunt capacitance (or a short lower-impedance piece);
+      a brief dip: shunt capacitance (or a short lower-impedance piece); at
+      the far end, a load with inductance in series or capacitance across;
     * a fall that relaxes upward: a capacitive load; a rise that relaxes
       downward: an inductive load.
     """
@@ -517,6 +537,24 @@ def classify(ev: Event, z0_ohm: float, *, loss_scale: float = 1.0, is_last: bool
     snr_score = 1.0 - math.exp(-ev.snr / 20.0) if math.isfinite(ev.snr) else 1.0
     z = ev.impedance_ohm
     zt = _z_text(z)
+    if after_end:
+        return Verdict("re_reflection", round(0.7 * snr_score, 2),
+                       f"{ev.size:+.3f} after the far end (an open, a short or the end of the "
+                       "described run): most likely a re-reflection, the wave's second trip "
+                       "between two mismatches; or the run is longer than described",
+                       ())
+    if ev.shape in ("bump", "dip") and at_far_end:
+        if ev.shape == "bump":
+            return Verdict("inductive_load", round(0.7 * snr_score, 2),
+                           f"brief bump of {ev.size:+.3f} at the far end: a load with about "
+                           f"{_eng(ev.inductance_h or 0.0, 'H')} in series (it settles to "
+                           f"{ev.level_settled:+.3f}, {_z_text(implied_impedance(ev.level_settled, z0_ohm))})",
+                           ("inductive_bump",))
+        return Verdict("capacitive_load", round(0.7 * snr_score, 2),
+                       f"brief dip of {ev.size:+.3f} at the far end: a load with about "
+                       f"{_eng(ev.capacitance_f or 0.0, 'F')} across it (it settles to "
+                       f"{ev.level_settled:+.3f}, {_z_text(implied_impedance(ev.level_settled, z0_ohm))})",
+                       ("capacitive_dip",))
     if ev.shape == "bump":
         ind = ev.inductance_h or 0.0
         return Verdict("inductive_bump", round(0.75 * snr_score, 2),
@@ -578,21 +616,20 @@ def classify(ev: Event, z0_ohm: float, *, loss_scale: float = 1.0, is_last: bool
 
 
 def _name_all(events: list[Event], z0_ohm: float, loss_scales=None, far_end=None) -> list[Event]:
+    """Name every event in order; what follows an open, a short or the far end
+    of the run is a re-reflection."""
     out = []
+    ended = False
     for i, ev in enumerate(events):
         verdict = classify(ev, z0_ohm,
                            loss_scale=1.0 if loss_scales is None else loss_scales[i],
                            is_last=i == len(events) - 1,
-                           at_far_end=bool(far_end and far_end[i]))
+                           at_far_end=bool(far_end and far_end[i]),
+                           after_end=ended or (ev.beyond_end and not (far_end and far_end[i])))
         out.append(replace(ev, kind=verdict.kind, confidence=verdict.confidence,
                            description=verdict.description, alternatives=verdict.alternatives))
+        ended = ended or verdict.kind in ("open", "short") or bool(far_end and far_end[i])
     return out
-
-
-def rename(analysis: Analysis, *, loss_scales=None, far_end=None) -> Analysis:
-    """The analysis with its events named again, knowing the cable's loss and the run's end."""
-    return replace(analysis, events=tuple(_name_all(list(analysis.events), analysis.z0_ohm,
-                                                    loss_scales, far_end)))
 
 
 def _z_text(z: float) -> str:
@@ -615,7 +652,7 @@ def _eng(value: float, unit: str) -> str:
 
 
 def place(analysis: Analysis, *, vf: float | None = None, vf_tolerance: float = 0.0,
-          segments=None, loss_scales=None) -> Analysis:
+          segments=None, cable=None, with_loss: bool = True) -> Analysis:
     """Put every event at a distance with the locate core: on one cable of
     velocity factor ``vf``, or in a run of ``segments`` (calc.run.RunSegment).
 
@@ -623,8 +660,9 @@ def place(analysis: Analysis, *, vf: float | None = None, vf_tolerance: float = 
     event later than the far end (even with every cable at its slowest) is
     marked ``beyond_end`` and placed past the end on the last cable's
     velocity; one whose delay range covers the far end's is ``at_far_end``.
-    The events are then named again with that knowledge and ``loss_scales``
-    (see :func:`classify`).
+    The events are then named again with that knowledge and, when
+    ``with_loss`` and the cables (``segments``, or the one ``cable``) carry a
+    loss model, with the loss in front of each (:func:`loss_scales`).
     """
     from calc import locate as loc
     from calc.errors import OutOfRunError
@@ -671,5 +709,168 @@ def place(analysis: Analysis, *, vf: float | None = None, vf_tolerance: float = 
                               offset_in_segment_m=where.offset_in_segment_m,
                               at_far_end=at_end))
     far_end = [ev.at_far_end for ev in placed]
-    return replace(analysis, events=tuple(_name_all(placed, analysis.z0_ohm, loss_scales,
+    placed_analysis = replace(analysis, events=tuple(placed))
+    scales = loss_scales(placed_analysis, segments, cable) if with_loss else None
+    return replace(analysis, events=tuple(_name_all(placed, analysis.z0_ohm, scales,
                                                     far_end)))
+
+
+def loss_scales(analysis: Analysis, segments=None, cable=None) -> list[float]:
+    """For each placed event, the fraction of a full reflection that the
+    loss of the cable in front of it lets back.
+
+    The echo predictor (:func:`calc.simulate.simulate`) is run on the cable
+    between the instrument and the event (the run's pieces, or ``cable`` for
+    one cable), all at the first cable's Z0 so that only loss counts, ended
+    in an open, at the trace's rise time: the open's first arrival size is
+    the fraction. 1 without a loss model, past the run's end, or at 0 m.
+    """
+    from calc.loads import parse_load
+    from calc.simulate import Segment, simulate
+
+    pieces = segments if segments is not None else ()
+    cables = [s.cable for s in pieces] + ([cable] if cable is not None else [])
+    if not any(c.has_loss_model for c in cables):
+        return [1.0] * len(analysis.events)
+    z0 = cables[0].z0_ohm
+    open_end = parse_load("open", "load")
+    out = []
+    for ev in analysis.events:
+        d = ev.distance_m
+        if d is None or d <= 0 or ev.beyond_end:
+            out.append(1.0)
+            continue
+        if segments is None:
+            front = [Segment(d, z0, cable.vf, cable.atten_k1, cable.atten_k2, cable.id)]
+        else:
+            front, start = [], 0.0
+            for seg in segments:
+                part = min(seg.length_m, d - start)
+                if part > 0:
+                    c = seg.cable
+                    front.append(Segment(part, z0, c.vf, c.atten_k1, c.atten_k2, c.id))
+                start += seg.length_m
+        pred = simulate(front, open_end, rise_time_s=analysis.rise_time_s)
+        sizes = [a.size for a in pred.arrivals if "reflect at the load" in a.path]
+        out.append(float(min(max(sizes[0], 0.05), 1.0)) if sizes else 1.0)
+    return out
+
+
+def run_segments(segments):
+    """calc.run.RunSegment list -> calc.simulate.Segment list (the echo predictor's)."""
+    from calc.simulate import Segment
+
+    return [Segment.from_run_segment(s) for s in segments]
+
+
+# -------------------------------------------------------------------- compare
+
+
+@dataclass(frozen=True)
+class Expected:
+    """An event the prediction shows, as the same finder sees it."""
+
+    round_trip_delay_s: float
+    distance_m: float
+    size: float
+    kind: str
+    path: str  # the bounce path of the largest arrival that makes it
+    tolerance_s: float
+    tolerance_m: float
+
+
+@dataclass(frozen=True)
+class Pairing:
+    """A predicted event and the found event taken for it."""
+
+    expected: Expected
+    found: Event
+    offset_s: float  # found minus expected
+    offset_m: float
+    size_differs: bool
+    kind_differs: bool
+
+
+@dataclass(frozen=True)
+class Comparison:
+    """The trace against the prediction for the expected run and load.
+
+    ``matched`` are found within tolerance of where they were predicted;
+    ``misplaced`` found with the right sign but outside tolerance (within the
+    search reach); ``missing`` predicted but not found; ``unexpected`` found
+    but not predicted; ``outside`` predicted beyond the recorded window.
+    """
+
+    matched: tuple[Pairing, ...]
+    misplaced: tuple[Pairing, ...]
+    missing: tuple[Expected, ...]
+    unexpected: tuple[Event, ...]
+    outside: tuple[Expected, ...]
+    rise_time_s: float
+    vf_tolerance: float
+
+
+#: Tolerance of a match: TOLERANCE_RISE_TIMES rise times plus the cables'
+#: VF tolerance times the predicted delay.
+TOLERANCE_RISE_TIMES = 1.5
+#: A found event further from its prediction than this many tolerances (or
+#: MISPLACED_REACH of the predicted delay, whichever is more) is not taken
+#: for it at all.
+MISPLACED_TOLERANCES = 4.0
+MISPLACED_REACH = 0.15
+
+
+def expected_events(prediction, analysis: Analysis, vf_tolerance: float) -> list[Expected]:
+    """The events :func:`analyse` finds on a noiseless prediction, at the
+    recorded trace's rise time and threshold."""
+    pa = analyse(prediction.time_s, prediction.level, z0_ohm=analysis.z0_ohm,
+                 incident_edge=False, rise_time_s=analysis.rise_time_s,
+                 min_size=analysis.threshold)
+    out = []
+    for ev in pa.events:
+        t = ev.round_trip_delay_s
+        near = [a for a in prediction.arrivals
+                if abs(a.time_s - t) <= 2.0 * analysis.rise_time_s]
+        path = max(near, key=lambda a: abs(a.size)).path if near else ""
+        tol_s = TOLERANCE_RISE_TIMES * analysis.rise_time_s + vf_tolerance * max(t, 0.0)
+        d = float(np.interp(t, prediction.time_s, prediction.distance_m))
+        d_hi = float(np.interp(t + tol_s, prediction.time_s, prediction.distance_m))
+        out.append(Expected(t, d, ev.size, ev.kind, path, tol_s, abs(d_hi - d)))
+    return out
+
+
+def compare(analysis: Analysis, prediction, *, vf_tolerance: float = 0.0) -> Comparison:
+    """Match the found events with the predicted ones (see :class:`Comparison`).
+
+    Matching: same sign of size; pairs are taken closest first (in units of
+    their tolerance), each event at most once.
+    """
+    expected = expected_events(prediction, analysis, vf_tolerance)
+    lo, hi = analysis.start_delay_s, analysis.end_delay_s
+    inside = [x for x in expected if lo <= x.round_trip_delay_s <= hi]
+    outside = tuple(x for x in expected if not lo <= x.round_trip_delay_s <= hi)
+    found = list(analysis.events)
+    pairs = []
+    for i, x in enumerate(inside):
+        reach = max(MISPLACED_TOLERANCES * x.tolerance_s, MISPLACED_REACH * x.round_trip_delay_s)
+        for j, ev in enumerate(found):
+            dt = ev.round_trip_delay_s - x.round_trip_delay_s
+            if abs(dt) <= reach and np.sign(ev.size) == np.sign(x.size):
+                pairs.append((abs(dt) / x.tolerance_s, i, j, dt))
+    pairs.sort()
+    used_x, used_f = set(), set()
+    matched, misplaced = [], []
+    for score, i, j, dt in pairs:
+        if i in used_x or j in used_f:
+            continue
+        used_x.add(i)
+        used_f.add(j)
+        x, ev = inside[i], found[j]
+        d_found = ev.distance_m if ev.distance_m is not None else x.distance_m
+        size_differs = abs(ev.size - x.size) > max(0.3 * abs(x.size), 3 * analysis.threshold)
+        pairing = Pairing(x, ev, dt, d_found - x.distance_m, size_differs, ev.kind != x.kind)
+        (matched if score <= 1.0 else misplaced).append(pairing)
+    missing = tuple(x for i, x in enumerate(inside) if i not in used_x)
+    unexpected = tuple(ev for j, ev in enumerate(found) if j not in used_f)
+    return Comparison(tuple(matched), tuple(misplaced), missing, unexpected, outside,
+                      analysis.rise_time_s, vf_tolerance)
