@@ -327,7 +327,7 @@ def analyse(time_s: np.ndarray, level: np.ndarray, *, z0_ohm: float = 50.0,
     threshold = max(k * sigma_d, min_size)
     mask = np.zeros(rho.size, dtype=bool)
     mask[lo:hi] = np.abs(span) > threshold
-    groups = _groups(mask, d, 2 * a + w, threshold)
+    groups = _groups(_cores(mask, np.abs(d), threshold), d, 2 * a + w, threshold)
     smooth = _box(rho, max(1, int(n_rise // 3)))
     events: list[Event] = []
     window = max(w, 4)
@@ -335,7 +335,7 @@ def analyse(time_s: np.ndarray, level: np.ndarray, *, z0_ohm: float = 50.0,
         prev_end = groups[gi - 1][1] if gi else lo - (a + w)
         next_start = groups[gi + 1][0] if gi + 1 < len(groups) else rho.size
         ev = _measure(t, rho, smooth, d, s, e, prev_end, next_start, window, t_zero,
-                      sigma_d, threshold, z0_ohm, dt)
+                      sigma_d, threshold, z0_ohm, dt, n_rise)
         if ev is not None:
             events.append(ev)
     if ringing > 0:
@@ -354,27 +354,76 @@ def analyse(time_s: np.ndarray, level: np.ndarray, *, z0_ohm: float = 50.0,
 
 
 def _estimate_rise(t: np.ndarray, r: np.ndarray) -> float:
-    """10-90 % time of the largest edge of a reflection-only trace."""
+    """10-90 % time of the first clear edge of a reflection-only trace.
+
+    The first edge is the least spread by cable loss. Its width is where the
+    slope stays above 10 % of its peak; a Gaussian-filtered step is 4.29
+    sigma wide there and rises 10-90 % in 2.56 sigma, hence the factor 0.6.
+    """
     dt = float(t[1] - t[0])
-    diff = np.abs(np.diff(_box(r, 3)))
-    i = int(np.argmax(diff))
-    if diff[i] == 0:
+    slope = np.abs(np.diff(_box(r, 3)))
+    big = float(slope.max())
+    if big == 0:
         return dt
-    # walk out from the steepest point while the slope stays above 10 % of its peak
-    thresh = 0.1 * diff[i]
+    noise = _mad_sigma(slope)
+    i = int(np.argmax(slope > max(0.3 * big, 8 * noise)))
+    reach = min(slope.size, i + 64)
+    i += int(np.argmax(slope[i:reach]))  # the local peak of that edge
+    thresh = 0.1 * slope[i]
     left = i
-    while left > 0 and diff[left - 1] > thresh:
+    while left > 0 and slope[left - 1] > thresh:
         left -= 1
     right = i
-    while right < diff.size - 1 and diff[right + 1] > thresh:
+    while right < slope.size - 1 and slope[right + 1] > thresh:
         right += 1
-    width = right - left + 1
-    return max(0.8 * width * dt, dt)
+    return max(0.6 * (right - left + 1) * dt, dt)
 
 
-def _groups(mask: np.ndarray, d: np.ndarray, gap: int, threshold: float
+def _runs(mask: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Start and end (inclusive) indices of the runs of True in ``mask``."""
+    edges = np.diff(np.concatenate(([0], mask.astype(np.int8), [0])))
+    return np.flatnonzero(edges == 1), np.flatnonzero(edges == -1) - 1
+
+
+#: Rise times after an edge at which the level after it is read.
+SETTLE_RISE_TIMES = 8.0
+#: Within a run above the threshold, only samples above this fraction of the
+#: run's peak belong to the edge; the rest is the slow creep around it.
+CORE_FRACTION = 0.3
+
+
+def _cores(mask: np.ndarray, mag: np.ndarray, threshold: float) -> list[tuple[int, int]]:
+    """The edges inside the runs of ``mask``: samples above CORE_FRACTION of the run's peak.
+
+    A slow creep (cable loss, a long section's own slope) keeps the filter a
+    little above a low threshold for a long time; trimming each run to its
+    cores stops that creep from gluing separate edges into one event. Cores
+    of one run are joined again where the filter between them stays above
+    CORE_FRACTION of the smaller one's peak (noise around the cut, not a
+    valley).
+    """
+    starts, ends = _runs(mask)
+    out: list[tuple[int, int]] = []
+    for s, e in zip(starts, ends, strict=True):
+        seg = mag[s:e + 1]
+        peak = float(seg.max())
+        cs, ce = _runs(seg >= max(CORE_FRACTION * peak, threshold))
+        cores = [(int(a), int(b), float(seg[a:b + 1].max())) for a, b in zip(cs, ce, strict=True)]
+        merged = [cores[0]]
+        for a, b, p in cores[1:]:
+            pa, pb, pp = merged[-1]
+            valley = float(seg[pb + 1:a].min()) if a > pb + 1 else p
+            if valley >= CORE_FRACTION * min(p, pp):
+                merged[-1] = (pa, b, max(p, pp))
+            else:
+                merged.append((a, b, p))
+        out += [(int(s) + a, int(s) + b) for a, b, _p in merged]
+    return out
+
+
+def _groups(edges: list[tuple[int, int]], d: np.ndarray, gap: int, threshold: float
             ) -> list[tuple[int, int]]:
-    """Runs of True in ``mask`` (inclusive bounds), joined into events.
+    """Edges (inclusive sample bounds) joined into events.
 
     Two runs join when the gap between them is at most ``gap`` (the filter's
     own span: a brief bump shows as two opposite lobes), or when the later
@@ -382,12 +431,10 @@ def _groups(mask: np.ndarray, d: np.ndarray, gap: int, threshold: float
     gap is at most half the length of the event so far (a step dispersed by
     cable loss keeps creeping the same way for a while).
     """
-    m = mask.astype(np.int8)
-    edges = np.diff(np.concatenate(([0], m, [0])))
-    starts = np.flatnonzero(edges == 1)
-    ends = np.flatnonzero(edges == -1) - 1
-    if starts.size == 0:
+    if not edges:
         return []
+    starts = np.array([a for a, _b in edges])
+    ends = np.array([b for _a, b in edges])
     signs = np.sign(d[starts])
     faint = np.maximum.reduceat(np.abs(d), starts) < 3.0 * threshold
     out = []
@@ -404,12 +451,22 @@ def _groups(mask: np.ndarray, d: np.ndarray, gap: int, threshold: float
 
 
 def _measure(t, rho, smooth, d, s, e, prev_end, next_start, window, t_zero, sigma_d,
-             threshold, z0_ohm, dt) -> Event | None:
-    """Levels, delay and shape of one group of samples [s, e]."""
+             threshold, z0_ohm, dt, n_rise) -> Event | None:
+    """Levels, delay and shape of one group of samples [s, e].
+
+    The level after is the median around SETTLE_RISE_TIMES rise times past the
+    edge (where the predictor's arrival sizes are taken too), or just after
+    the edge when the next event comes sooner.
+    """
     b0 = max(prev_end + 1, s - window, 0)
     before = float(np.median(rho[b0:s])) if s > b0 else float(rho[max(s - 1, 0)])
-    a1 = min(e + 1 + window, next_start, rho.size)
-    after = float(np.median(rho[e + 1:a1])) if a1 > e + 1 else float(rho[min(e, rho.size - 1)])
+    i_d = s + int(np.argmax(np.abs(d[s:e + 1])))
+    centre = i_d + int(SETTLE_RISE_TIMES * n_rise)
+    half = max(2, int(n_rise))
+    a0, a1 = max(centre - half, e + 1), min(centre + half, next_start, rho.size)
+    if a1 <= a0:
+        a0, a1 = e + 1, min(e + 1 + window, next_start, rho.size)
+    after = float(np.median(rho[a0:a1])) if a1 > a0 else float(rho[min(e, rho.size - 1)])
     s0 = max(next_start - window, e + 1)
     s1 = min(next_start, rho.size)
     settled = float(np.median(rho[s0:s1])) if s1 > s0 else after
@@ -419,7 +476,6 @@ def _measure(t, rho, smooth, d, s, e, prev_end, next_start, window, t_zero, sigm
     excursion = peak - before
     net = after - before
     i_peak = s + k_peak
-    i_d = s + int(np.argmax(np.abs(d[s:e + 1])))
     if abs(excursion) < threshold:
         return None
     if abs(net) < 0.35 * abs(excursion):
