@@ -124,6 +124,9 @@ class Event:
     offset_in_segment_m: float | None = None
     beyond_end: bool = False
     at_far_end: bool = False
+    joint_index: int | None = None  # at the joint after this segment (0-based), if any
+    loss_delay_s: float = 0.0  # taken off the delay for the loss's lag before placing
+    loss_scale: float = 1.0  # fraction of a full reflection the loss in front lets back
 
 
 @dataclass(frozen=True)
@@ -336,8 +339,15 @@ def analyse(time_s: np.ndarray, level: np.ndarray, *, z0_ohm: float = 50.0,
         next_start = groups[gi + 1][0] if gi + 1 < len(groups) else rho.size
         ev = _measure(t, rho, smooth, d, s, e, prev_end, next_start, window, t_zero,
                       sigma_d, threshold, z0_ohm, dt, n_rise)
-        if ev is not None:
-            events.append(ev)
+        if ev is None:
+            continue
+        faint = float(np.max(np.abs(d[s:e + 1]))) < 3.0 * threshold
+        if faint and events and _still_moving(events[-1], ev, threshold):
+            # the previous event's level is still creeping this way (cable loss, a
+            # reactance settling): this is its tail, not an event of its own
+            events[-1] = replace(events[-1], level_settled=ev.level_settled)
+            continue
+        events.append(ev)
     if ringing > 0:
         events = _drop_ringing(events, ringing, 20 * rise)
     if len(events) > max_events:
@@ -472,32 +482,41 @@ def _measure(t, rho, smooth, d, s, e, prev_end, next_start, window, t_zero, sigm
     settled = float(np.median(rho[s0:s1])) if s1 > s0 else after
     seg = smooth[s:e + 1] - before
     k_peak = int(np.argmax(np.abs(seg)))
-    peak = float(seg[k_peak]) + before
-    excursion = peak - before
+    excursion = float(seg[k_peak])
     net = after - before
-    i_peak = s + k_peak
     if abs(excursion) < threshold:
         return None
-    if abs(net) < 0.35 * abs(excursion):
+    # the swing against the final direction (a capacitor dips before it rises)
+    final = settled - before if abs(settled - before) > abs(net) else net
+    k_against = int(np.argmin(seg)) if final > 0 else int(np.argmax(seg))
+    against = float(seg[k_against]) if final * float(seg[k_against]) < 0 else 0.0
+    area = 0.0
+    if abs(net) < 0.35 * abs(excursion) and abs(settled - before) < 0.35 * abs(excursion):
         shape = "bump" if excursion > 0 else "dip"
+    elif abs(against) > max(4 * threshold, 0.15 * abs(final)):
+        shape, excursion, k_peak = "relaxing", against, k_against
+    elif abs(excursion) - abs(net) > max(0.3 * abs(net), 4 * threshold):
+        shape = "relaxing"  # overshoots, then settles the same way (an L into a load)
+    else:
+        shape = "step"
+    i_peak = s + k_peak
+    peak = before + excursion
+    if shape in ("bump", "dip"):
         time = _peak_time(t, smooth, i_peak)
         size = excursion
         tail = min(e + 1 + 2 * (e - s + 1), next_start, rho.size)  # slow tails of reactances
         area = float(np.sum(rho[s:tail] - before) * dt)
         level_for_z = peak
+    elif shape == "relaxing":
+        time = _crossing(t, smooth, before + 0.5 * excursion, i_peak, s, i_peak)
+        size = excursion
+        level_for_z = settled
     else:
-        opposite = excursion * net < 0  # swings one way, ends the other
-        overshoot = abs(excursion) - abs(net) > max(0.3 * abs(net), 4 * threshold)
-        shape = "relaxing" if opposite or overshoot else "step"
-        if shape == "relaxing":
-            time = _crossing(t, smooth, before + 0.5 * excursion, i_peak, s, i_peak)
-            size = excursion
-            level_for_z = settled
-        else:
-            time = _crossing(t, smooth, 0.5 * (before + after), i_d, s, e)
-            size = net
-            level_for_z = after
-        area = 0.0
+        time = _crossing(t, smooth, 0.5 * (before + after), i_d, s, e)
+        size = net
+        level_for_z = after
+    if abs(size) < threshold:  # swings that come back to nothing within the noise
+        return None
     snr = abs(size) / sigma_d if sigma_d > 0 else math.inf
     tau = None
     if shape == "relaxing":
@@ -513,6 +532,12 @@ def _measure(t, rho, smooth, d, s, e, prev_end, next_start, window, t_zero, sigm
         impedance_ohm=implied_impedance(level_for_z, z0_ohm), shape=shape, kind="",
         confidence=0.0, description="", snr=snr, time_constant_s=tau, capacitance_f=cap,
         inductance_h=ind)
+
+
+def _still_moving(prev: Event, ev: Event, threshold: float) -> bool:
+    """True when ``prev``'s level was still moving the way ``ev`` goes."""
+    creep = prev.level_settled - prev.level_after
+    return abs(creep) > 2.0 * threshold and np.sign(creep) == np.sign(ev.size)
 
 
 def _peak_time(t: np.ndarray, y: np.ndarray, i: int) -> float:
@@ -600,16 +625,16 @@ def classify(ev: Event, z0_ohm: float, *, loss_scale: float = 1.0, is_last: bool
                        "between two mismatches; or the run is longer than described",
                        ())
     if ev.shape in ("bump", "dip") and at_far_end:
+        settles = (f"it settles to {ev.level_settled:+.3f}, "
+                   f"{_z_text(implied_impedance(ev.level_settled, z0_ohm))}")
         if ev.shape == "bump":
             return Verdict("inductive_load", round(0.7 * snr_score, 2),
                            f"brief bump of {ev.size:+.3f} at the far end: a load with about "
-                           f"{_eng(ev.inductance_h or 0.0, 'H')} in series (it settles to "
-                           f"{ev.level_settled:+.3f}, {_z_text(implied_impedance(ev.level_settled, z0_ohm))})",
+                           f"{_eng(ev.inductance_h or 0.0, 'H')} in series ({settles})",
                            ("inductive_bump",))
         return Verdict("capacitive_load", round(0.7 * snr_score, 2),
                        f"brief dip of {ev.size:+.3f} at the far end: a load with about "
-                       f"{_eng(ev.capacitance_f or 0.0, 'F')} across it (it settles to "
-                       f"{ev.level_settled:+.3f}, {_z_text(implied_impedance(ev.level_settled, z0_ohm))})",
+                       f"{_eng(ev.capacitance_f or 0.0, 'F')} across it ({settles})",
                        ("capacitive_dip",))
     if ev.shape == "bump":
         ind = ev.inductance_h or 0.0
@@ -707,6 +732,90 @@ def _eng(value: float, unit: str) -> str:
 # ---------------------------------------------------------------------- place
 
 
+@dataclass(frozen=True)
+class LossEffect:
+    """What the cable's loss does to a full reflection from a given distance,
+    as :func:`analyse` measures it: the step's size (a fraction of 1) and how
+    late its 50 % point comes after the lossless round trip."""
+
+    scale: float = 1.0
+    delay_s: float = 0.0
+
+
+def loss_effect(distance_m: float, rise_time_s: float, segments=None, cable=None,
+                threshold: float = MIN_EVENT_SIZE) -> LossEffect:
+    """The loss of the cable between the instrument and ``distance_m``.
+
+    The echo predictor (:func:`calc.simulate.simulate`) is run on that stretch
+    (the run's pieces, or ``cable`` for one cable), all at the first cable's
+    Z0 so that only loss counts, ended in an open, at the trace's rise time;
+    :func:`analyse` then reads its step exactly as it reads the recorded
+    trace (with that trace's ``threshold``). Skin-effect loss spreads the
+    edge, so its 50 % point comes late: the lag is taken off the event's
+    delay before placing it.
+    """
+    from calc.loads import parse_load
+    from calc.simulate import Segment, simulate
+
+    cables = [s.cable for s in segments] if segments is not None else [cable]
+    if distance_m <= 0 or not any(c is not None and c.has_loss_model for c in cables):
+        return LossEffect()
+    z0 = cables[0].z0_ohm
+    if segments is None:
+        front = [Segment(distance_m, z0, cable.vf, cable.atten_k1, cable.atten_k2, cable.id)]
+    else:
+        front, start = [], 0.0
+        for k, seg in enumerate(segments):
+            last = k == len(segments) - 1
+            part = distance_m - start if last else min(seg.length_m, distance_m - start)
+            if part > 0:
+                c = seg.cable
+                front.append(Segment(part, z0, c.vf, c.atten_k1, c.atten_k2, c.id))
+            start += seg.length_m
+    pred = simulate(front, parse_load("open", "load"), rise_time_s=rise_time_s)
+    seen = analyse(pred.time_s, pred.level, incident_edge=False, rise_time_s=rise_time_s,
+                   min_size=threshold).events
+    if not seen:
+        return LossEffect(0.05, 0.0)
+    lossless = 2.0 * sum(p.delay_s for p in front)
+    step = seen[0]
+    return LossEffect(float(min(max(step.size, 0.05), 1.0)),
+                      max(step.round_trip_delay_s - lossless, 0.0))
+
+
+def _placed(ev: Event, t: float, rise: float, vf, vf_tolerance, segments) -> Event:
+    """``ev`` put at round-trip delay ``t`` on one cable or in a run."""
+    from calc import locate as loc
+    from calc.errors import OutOfRunError
+
+    if segments is None:
+        if t <= 0:
+            return replace(ev, distance_m=0.0, distance_low_m=0.0, distance_high_m=0.0)
+        where = loc.locate(t, vf, vf_tolerance)
+        return replace(ev, distance_m=where.distance_m, distance_low_m=where.distance_low_m,
+                       distance_high_m=where.distance_high_m)
+    end = loc.run_junctions(segments)[-1]
+    at_end = end.round_trip_delay_low_s - rise <= t <= end.round_trip_delay_high_s + rise
+    if t <= 0:
+        return replace(ev, distance_m=0.0, distance_low_m=0.0, distance_high_m=0.0,
+                       segment_index=0, cable_id=segments[0].cable.id, offset_in_segment_m=0.0)
+    try:
+        where = loc.locate_in_run(t, segments)
+    except OutOfRunError:
+        past = loc.distance_from_delay_m(t - end.round_trip_delay_s, segments[-1].cable.vf)
+        return replace(ev, distance_m=end.distance_m + past, distance_low_m=None,
+                       distance_high_m=None, segment_index=None, cable_id=None,
+                       offset_in_segment_m=None, beyond_end=True, at_far_end=at_end)
+    joint = None
+    for j in loc.run_junctions(segments)[:-1]:
+        if j.round_trip_delay_low_s - rise <= t <= j.round_trip_delay_high_s + rise:
+            joint = j.after_segment_index
+    return replace(ev, distance_m=where.distance_m, distance_low_m=where.distance_low_m,
+                   distance_high_m=where.distance_high_m, segment_index=where.segment_index,
+                   cable_id=where.cable_id, offset_in_segment_m=where.offset_in_segment_m,
+                   beyond_end=False, at_far_end=at_end, joint_index=joint)
+
+
 def place(analysis: Analysis, *, vf: float | None = None, vf_tolerance: float = 0.0,
           segments=None, cable=None, with_loss: bool = True) -> Analysis:
     """Put every event at a distance with the locate core: on one cable of
@@ -716,100 +825,30 @@ def place(analysis: Analysis, *, vf: float | None = None, vf_tolerance: float = 
     event later than the far end (even with every cable at its slowest) is
     marked ``beyond_end`` and placed past the end on the last cable's
     velocity; one whose delay range covers the far end's is ``at_far_end``.
-    The events are then named again with that knowledge and, when
-    ``with_loss`` and the cables (``segments``, or the one ``cable``) carry a
-    loss model, with the loss in front of each (:func:`loss_scales`).
+    When ``with_loss`` and the cables (``segments``, or the one ``cable``)
+    carry a loss model, a step's delay is first corrected for the lag that
+    loss gives its 50 % point, and every event's size is weighed against the
+    loss in front of it (:func:`loss_effect`); ``loss_delay_s`` and
+    ``loss_scale`` say by how much. Past the far end the last cable is taken
+    to go on. The events are then named again with that knowledge.
     """
-    from calc import locate as loc
-    from calc.errors import OutOfRunError
-
     if (vf is None) == (segments is None):
         raise ValueError("give a velocity factor or a run of segments")
     rise = analysis.rise_time_s
-    placed = []
+    placed, scales = [], []
     for ev in analysis.events:
-        t = ev.round_trip_delay_s
-        if segments is None:
-            if t <= 0:
-                placed.append(replace(ev, distance_m=0.0, distance_low_m=0.0,
-                                      distance_high_m=0.0))
-                continue
-            where = loc.locate(t, vf, vf_tolerance)
-            placed.append(replace(ev, distance_m=where.distance_m,
-                                  distance_low_m=where.distance_low_m,
-                                  distance_high_m=where.distance_high_m))
-            continue
-        junctions = loc.run_junctions(segments)
-        end = junctions[-1]
-        at_end = end.round_trip_delay_low_s - rise <= t <= end.round_trip_delay_high_s + rise
-        if t <= 0:
-            placed.append(replace(ev, distance_m=0.0, distance_low_m=0.0, distance_high_m=0.0,
-                                  segment_index=0, cable_id=segments[0].cable.id,
-                                  offset_in_segment_m=0.0))
-            continue
-        try:
-            where = loc.locate_in_run(t, segments)
-        except OutOfRunError:
-            last = segments[-1].cable
-            past = loc.distance_from_delay_m(t - end.round_trip_delay_s, last.vf)
-            placed.append(replace(ev, distance_m=end.distance_m + past,
-                                  distance_low_m=None, distance_high_m=None,
-                                  segment_index=None, cable_id=None,
-                                  offset_in_segment_m=None, beyond_end=True,
-                                  at_far_end=at_end))
-            continue
-        placed.append(replace(ev, distance_m=where.distance_m,
-                              distance_low_m=where.distance_low_m,
-                              distance_high_m=where.distance_high_m,
-                              segment_index=where.segment_index, cable_id=where.cable_id,
-                              offset_in_segment_m=where.offset_in_segment_m,
-                              at_far_end=at_end))
+        first = _placed(ev, ev.round_trip_delay_s, rise, vf, vf_tolerance, segments)
+        effect = LossEffect()
+        if with_loss and first.distance_m:
+            effect = loss_effect(first.distance_m, rise, segments, cable, analysis.threshold)
+        if effect.delay_s > 0 and ev.shape == "step":
+            first = _placed(ev, ev.round_trip_delay_s - effect.delay_s, rise, vf, vf_tolerance,
+                            segments)
+        lag = effect.delay_s if ev.shape == "step" else 0.0
+        placed.append(replace(first, loss_delay_s=lag, loss_scale=effect.scale))
+        scales.append(effect.scale)
     far_end = [ev.at_far_end for ev in placed]
-    placed_analysis = replace(analysis, events=tuple(placed))
-    scales = loss_scales(placed_analysis, segments, cable) if with_loss else None
-    return replace(analysis, events=tuple(_name_all(placed, analysis.z0_ohm, scales,
-                                                    far_end)))
-
-
-def loss_scales(analysis: Analysis, segments=None, cable=None) -> list[float]:
-    """For each placed event, the fraction of a full reflection that the
-    loss of the cable in front of it lets back.
-
-    The echo predictor (:func:`calc.simulate.simulate`) is run on the cable
-    between the instrument and the event (the run's pieces, or ``cable`` for
-    one cable), all at the first cable's Z0 so that only loss counts, ended
-    in an open, at the trace's rise time: the open's first arrival size is
-    the fraction. 1 without a loss model, past the run's end, or at 0 m.
-    """
-    from calc.loads import parse_load
-    from calc.simulate import Segment, simulate
-
-    pieces = segments if segments is not None else ()
-    cables = [s.cable for s in pieces] + ([cable] if cable is not None else [])
-    if not any(c.has_loss_model for c in cables):
-        return [1.0] * len(analysis.events)
-    z0 = cables[0].z0_ohm
-    open_end = parse_load("open", "load")
-    out = []
-    for ev in analysis.events:
-        d = ev.distance_m
-        if d is None or d <= 0 or ev.beyond_end:
-            out.append(1.0)
-            continue
-        if segments is None:
-            front = [Segment(d, z0, cable.vf, cable.atten_k1, cable.atten_k2, cable.id)]
-        else:
-            front, start = [], 0.0
-            for seg in segments:
-                part = min(seg.length_m, d - start)
-                if part > 0:
-                    c = seg.cable
-                    front.append(Segment(part, z0, c.vf, c.atten_k1, c.atten_k2, c.id))
-                start += seg.length_m
-        pred = simulate(front, open_end, rise_time_s=analysis.rise_time_s)
-        sizes = [a.size for a in pred.arrivals if "reflect at the load" in a.path]
-        out.append(float(min(max(sizes[0], 0.05), 1.0)) if sizes else 1.0)
-    return out
+    return replace(analysis, events=tuple(_name_all(placed, analysis.z0_ohm, scales, far_end)))
 
 
 def run_segments(segments):
@@ -869,63 +908,88 @@ class Comparison:
 #: Tolerance of a match: TOLERANCE_RISE_TIMES rise times plus the cables'
 #: VF tolerance times the predicted delay.
 TOLERANCE_RISE_TIMES = 1.5
-#: A found event further from its prediction than this many tolerances (or
-#: MISPLACED_REACH of the predicted delay, whichever is more) is not taken
-#: for it at all.
+#: A found event further from its prediction than this many tolerances, or
+#: than MISPLACED_REACH of the predicted delay (MISPLACED_REACH_SAME for an
+#: event of the same kind), whichever is more, is not taken for it at all.
 MISPLACED_TOLERANCES = 4.0
 MISPLACED_REACH = 0.15
+MISPLACED_REACH_SAME = 0.5
+#: Pairing prefers events of the same kind: a different kind costs this many
+#: tolerances. A re-reflection is never paired with a first reflection.
+KIND_PENALTY = 2.0
 
 
-def expected_events(prediction, analysis: Analysis, vf_tolerance: float) -> list[Expected]:
+def expected_events(prediction, analysis: Analysis, segments,
+                    vf_tolerance: float) -> list[Expected]:
     """The events :func:`analyse` finds on a noiseless prediction, at the
-    recorded trace's rise time and threshold."""
+    recorded trace's rise time and threshold, placed and named on the
+    expected run (``segments``, calc.run.RunSegment) as the trace's are."""
     pa = analyse(prediction.time_s, prediction.level, z0_ohm=analysis.z0_ohm,
                  incident_edge=False, rise_time_s=analysis.rise_time_s,
                  min_size=analysis.threshold)
+    pa = place(pa, segments=segments)
     out = []
     for ev in pa.events:
         t = ev.round_trip_delay_s
+        arrival_t = t - ev.loss_delay_s
         near = [a for a in prediction.arrivals
-                if abs(a.time_s - t) <= 2.0 * analysis.rise_time_s]
+                if abs(a.time_s - arrival_t) <= 2.0 * analysis.rise_time_s]
         path = max(near, key=lambda a: abs(a.size)).path if near else ""
         tol_s = TOLERANCE_RISE_TIMES * analysis.rise_time_s + vf_tolerance * max(t, 0.0)
         d = float(np.interp(t, prediction.time_s, prediction.distance_m))
         d_hi = float(np.interp(t + tol_s, prediction.time_s, prediction.distance_m))
-        out.append(Expected(t, d, ev.size, ev.kind, path, tol_s, abs(d_hi - d)))
+        out.append(Expected(t, ev.distance_m if ev.distance_m is not None else d, ev.size,
+                            ev.kind, path, tol_s, abs(d_hi - d)))
     return out
 
 
-def compare(analysis: Analysis, prediction, *, vf_tolerance: float = 0.0) -> Comparison:
-    """Match the found events with the predicted ones (see :class:`Comparison`).
+def compare(analysis: Analysis, prediction, segments, *, vf_tolerance: float = 0.0
+            ) -> Comparison:
+    """Match the found events with those predicted for the expected run
+    ``segments`` (the run ``prediction`` was made for; see :class:`Comparison`).
 
-    Matching: same sign of size; pairs are taken closest first (in units of
-    their tolerance), each event at most once.
+    Matching: same sign of size, re-reflections only with re-reflections;
+    pairs are taken closest first (in units of their tolerance, plus
+    :data:`KIND_PENALTY` when the kinds differ), each event at most once.
+    Offsets are measured on the prediction's own distance axis, so the
+    loss's lag (the same on both) cancels.
     """
-    expected = expected_events(prediction, analysis, vf_tolerance)
+    expected = expected_events(prediction, analysis, segments, vf_tolerance)
     lo, hi = analysis.start_delay_s, analysis.end_delay_s
     inside = [x for x in expected if lo <= x.round_trip_delay_s <= hi]
     outside = tuple(x for x in expected if not lo <= x.round_trip_delay_s <= hi)
     found = list(analysis.events)
     pairs = []
     for i, x in enumerate(inside):
-        reach = max(MISPLACED_TOLERANCES * x.tolerance_s, MISPLACED_REACH * x.round_trip_delay_s)
         for j, ev in enumerate(found):
+            if np.sign(ev.size) != np.sign(x.size):
+                continue
+            if (ev.kind == "re_reflection") != (x.kind == "re_reflection"):
+                continue  # a bounce is never taken for a first reflection
+            same = ev.kind == x.kind
+            reach = max(MISPLACED_TOLERANCES * x.tolerance_s,
+                        (MISPLACED_REACH_SAME if same else MISPLACED_REACH)
+                        * x.round_trip_delay_s)
             dt = ev.round_trip_delay_s - x.round_trip_delay_s
-            if abs(dt) <= reach and np.sign(ev.size) == np.sign(x.size):
-                pairs.append((abs(dt) / x.tolerance_s, i, j, dt))
+            if abs(dt) <= reach:
+                pairs.append((abs(dt) / x.tolerance_s + (0.0 if same else KIND_PENALTY),
+                              i, j, dt))
     pairs.sort()
     used_x, used_f = set(), set()
     matched, misplaced = [], []
-    for score, i, j, dt in pairs:
+    for _score, i, j, dt in pairs:
         if i in used_x or j in used_f:
             continue
         used_x.add(i)
         used_f.add(j)
         x, ev = inside[i], found[j]
-        d_found = ev.distance_m if ev.distance_m is not None else x.distance_m
+        offset_m = float(np.interp(ev.round_trip_delay_s, prediction.time_s,
+                                   prediction.distance_m)
+                         - np.interp(x.round_trip_delay_s, prediction.time_s,
+                                     prediction.distance_m))
         size_differs = abs(ev.size - x.size) > max(0.3 * abs(x.size), 3 * analysis.threshold)
-        pairing = Pairing(x, ev, dt, d_found - x.distance_m, size_differs, ev.kind != x.kind)
-        (matched if score <= 1.0 else misplaced).append(pairing)
+        pairing = Pairing(x, ev, dt, offset_m, size_differs, ev.kind != x.kind)
+        (matched if abs(dt) <= x.tolerance_s else misplaced).append(pairing)
     missing = tuple(x for i, x in enumerate(inside) if i not in used_x)
     unexpected = tuple(ev for j, ev in enumerate(found) if j not in used_f)
     return Comparison(tuple(matched), tuple(misplaced), missing, unexpected, outside,
