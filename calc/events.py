@@ -739,7 +739,8 @@ class LossEffect:
     late its 50 % point comes after the lossless round trip."""
 
     scale: float = 1.0
-    delay_s: float = 0.0
+    delay_s: float = 0.0  # lag of a step's 50 % point
+    peak_delay_s: float = 0.0  # lag of the steepest point: where a brief bump or dip peaks
 
 
 def loss_effect(distance_m: float, rise_time_s: float, segments=None, cable=None,
@@ -779,8 +780,14 @@ def loss_effect(distance_m: float, rise_time_s: float, segments=None, cable=None
         return LossEffect(0.05, 0.0)
     lossless = 2.0 * sum(p.delay_s for p in front)
     step = seen[0]
+    # A small series L or shunt C reflects the derivative of the edge, so a
+    # brief bump peaks where this lossy step is steepest.
+    slope = np.diff(pred.level)
+    steepest = _peak_time(pred.time_s[:-1], slope, int(np.argmax(slope)))
+    steepest += 0.5 * float(pred.time_s[1] - pred.time_s[0])
     return LossEffect(float(min(max(step.size, 0.05), 1.0)),
-                      max(step.round_trip_delay_s - lossless, 0.0))
+                      max(step.round_trip_delay_s - lossless, 0.0),
+                      max(steepest - lossless, 0.0))
 
 
 def _placed(ev: Event, t: float, rise: float, vf, vf_tolerance, segments) -> Event:
@@ -827,8 +834,8 @@ def place(analysis: Analysis, *, vf: float | None = None, vf_tolerance: float = 
     velocity; one whose delay range covers the far end's is ``at_far_end``.
     When ``with_loss`` and the cables (``segments``, or the one ``cable``)
     carry a loss model, a step's delay is first corrected for the lag that
-    loss gives its 50 % point, and every event's size is weighed against the
-    loss in front of it (:func:`loss_effect`); ``loss_delay_s`` and
+    loss gives its 50 % point (a brief bump's or dip's for the lag of its
+    peak), and every event's size is weighed against the loss in front of it (:func:`loss_effect`); ``loss_delay_s`` and
     ``loss_scale`` say by how much. Past the far end the last cable is taken
     to go on. The events are then named again with that knowledge.
     """
@@ -841,10 +848,10 @@ def place(analysis: Analysis, *, vf: float | None = None, vf_tolerance: float = 
         effect = LossEffect()
         if with_loss and first.distance_m:
             effect = loss_effect(first.distance_m, rise, segments, cable, analysis.threshold)
-        if effect.delay_s > 0 and ev.shape == "step":
-            first = _placed(ev, ev.round_trip_delay_s - effect.delay_s, rise, vf, vf_tolerance,
-                            segments)
-        lag = effect.delay_s if ev.shape == "step" else 0.0
+        lag = {"step": effect.delay_s, "bump": effect.peak_delay_s,
+               "dip": effect.peak_delay_s}.get(ev.shape, 0.0)
+        if lag > 0:
+            first = _placed(ev, ev.round_trip_delay_s - lag, rise, vf, vf_tolerance, segments)
         placed.append(replace(first, loss_delay_s=lag, loss_scale=effect.scale))
         scales.append(effect.scale)
     far_end = [ev.at_far_end for ev in placed]

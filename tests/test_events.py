@@ -27,13 +27,13 @@ import math
 import numpy as np
 import pytest
 
+from cable_catalog.loader import load_catalog
 from calc.constants import C0_M_PER_S
 from calc.errors import InputError
 from calc.events import analyse, compare, place
 from calc.loads import parse_load
 from calc.run import RunSegment
 from calc.simulate import Lump, Segment, simulate
-from cable_catalog.loader import load_catalog
 from tui.demo.traces import instrument_trace
 
 RISE_S = 0.5e-9
