@@ -109,12 +109,13 @@ class Event:
     shape: str  # "step", "bump", "dip" or "relaxing"
     kind: str
     confidence: float
-    description: str
     snr: float
     time_constant_s: float | None = None
     capacitance_f: float | None = None
     inductance_h: float | None = None
     alternatives: tuple[str, ...] = ()
+    level_reached: float = 0.0  # level after, allowing for the loss in front (for naming)
+    bounce_of: tuple[int, int] | None = None  # a second trip between these two events
     # where it is (filled by :func:`place`)
     distance_m: float | None = None
     distance_low_m: float | None = None
@@ -355,7 +356,7 @@ def analyse(time_s: np.ndarray, level: np.ndarray, *, z0_ohm: float = 50.0,
                       key=lambda ev: ev.round_trip_delay_s)
         notes.append(f"{len(events)} events found; the {max_events} largest are listed")
         events = keep
-    events = _name_all(events, z0_ohm)
+    events = _name_all(events, rise, threshold)
     return Analysis(
         z0_ohm=z0_ohm, incident=edge, time_zero_s=t_zero, sample_interval_s=dt,
         rise_time_s=rise, noise_rms=noise_rms, threshold=threshold,
@@ -530,7 +531,7 @@ def _measure(t, rho, smooth, d, s, e, prev_end, next_start, window, t_zero, sigm
         round_trip_delay_s=time - t_zero, size=size, level_before=before, level_after=after,
         level_settled=settled, peak_level=peak,
         impedance_ohm=implied_impedance(level_for_z, z0_ohm), shape=shape, kind="",
-        confidence=0.0, description="", snr=snr, time_constant_s=tau, capacitance_f=cap,
+        confidence=0.0, snr=snr, time_constant_s=tau, capacitance_f=cap,
         inductance_h=ind)
 
 
@@ -581,14 +582,24 @@ def _drop_ringing(events: list[Event], ringing: float, reach_s: float) -> list[E
 
 @dataclass(frozen=True)
 class Verdict:
+    """What an event probably is: its kind, a confidence score, what else it could be."""
+
     kind: str
     confidence: float
-    description: str
     alternatives: tuple[str, ...] = ()
+    reached: float = 0.0  # the level after, allowing for the loss in front
 
 
-def classify(ev: Event, z0_ohm: float, *, loss_scale: float = 1.0, is_last: bool = False,
-             at_far_end: bool = False, after_end: bool = False) -> Verdict:
+#: Multiple reflections: an event this close (in rise times) to t_j + (t_j - t_i)
+#: for two earlier events i < j, and no bigger than BOUNCE_SIZE x their sizes'
+#: product (plus the noise), is the wave's second trip between them.
+BOUNCE_RISE_TIMES = 1.5
+BOUNCE_SIZE = 2.0
+
+
+def classify(ev: Event, *, loss_scale: float = 1.0, is_last: bool = False,
+             at_far_end: bool = False, after_end: bool = False,
+             bounce: bool = False) -> Verdict:
     """Name an event from its shape and level.
 
     ``loss_scale`` (0..1] is the fraction of a full reflection that survives
@@ -597,12 +608,14 @@ def classify(ev: Event, z0_ohm: float, *, loss_scale: float = 1.0, is_last: bool
     with the open/short limits. ``at_far_end`` says the event sits at the far
     end of the described run; ``is_last`` that nothing follows it;
     ``after_end`` that it comes after an open or a short, or past the far
-    end of the described run, where nothing further down the cable can show.
+    end of the described run, where nothing further down the cable can show;
+    ``bounce`` that its delay and size fit a second trip between two earlier
+    events.
 
     Rules (common practice of trace reading):
 
-    * after an open, a short or the run's far end: a re-reflection, a second
-      trip between two mismatches;
+    * after an open, a short or the run's far end, or timed and sized as a
+      second trip between two earlier mismatches: a re-reflection;
     * level reaching at least +0.8 (Z >= 9 Z0) after a rise: an open, or a
       very high impedance; at most -0.8 after a fall: a short;
     * any other lasting rise: a higher-impedance section (or, at the end, a
@@ -613,120 +626,91 @@ def classify(ev: Event, z0_ohm: float, *, loss_scale: float = 1.0, is_last: bool
       the far end, a load with inductance in series or capacitance across;
     * a fall that relaxes upward: a capacitive load; a rise that relaxes
       downward: an inductive load.
+
+    The confidence is a score, not a probability: the signal-to-noise part
+    ``1 - exp(-snr/20)`` times a factor for how many things look the same
+    (0.95 for a clear open or short on a lossless cable, 0.85 at the end of
+    a described run, 0.75 for a section or a reactance, 0.6 for the last
+    event when the run's end is unknown) times, for an open or a short, how
+    far past the +/-0.8 limit the level goes.
     """
     scale = min(max(loss_scale, 0.05), 1.0)
     snr_score = 1.0 - math.exp(-ev.snr / 20.0) if math.isfinite(ev.snr) else 1.0
-    z = ev.impedance_ohm
-    zt = _z_text(z)
-    if after_end:
-        return Verdict("re_reflection", round(0.7 * snr_score, 2),
-                       f"{ev.size:+.3f} after the far end (an open, a short or the end of the "
-                       "described run): most likely a re-reflection, the wave's second trip "
-                       "between two mismatches; or the run is longer than described",
-                       ())
-    if ev.shape in ("bump", "dip") and at_far_end:
-        settles = (f"it settles to {ev.level_settled:+.3f}, "
-                   f"{_z_text(implied_impedance(ev.level_settled, z0_ohm))}")
-        if ev.shape == "bump":
-            return Verdict("inductive_load", round(0.7 * snr_score, 2),
-                           f"brief bump of {ev.size:+.3f} at the far end: a load with about "
-                           f"{_eng(ev.inductance_h or 0.0, 'H')} in series ({settles})",
-                           ("inductive_bump",))
-        return Verdict("capacitive_load", round(0.7 * snr_score, 2),
-                       f"brief dip of {ev.size:+.3f} at the far end: a load with about "
-                       f"{_eng(ev.capacitance_f or 0.0, 'F')} across it ({settles})",
-                       ("capacitive_dip",))
-    if ev.shape == "bump":
-        ind = ev.inductance_h or 0.0
-        return Verdict("inductive_bump", round(0.75 * snr_score, 2),
-                       f"brief bump of {ev.size:+.3f}: a series inductance of about "
-                       f"{_eng(ind, 'H')} (a connector, a splice, a pigtail) or a short piece "
-                       "of higher impedance",
-                       ("higher_impedance",))
-    if ev.shape == "dip":
-        cap = ev.capacitance_f or 0.0
-        return Verdict("capacitive_dip", round(0.75 * snr_score, 2),
-                       f"brief dip of {ev.size:+.3f}: a shunt capacitance of about "
-                       f"{_eng(cap, 'F')} (a connector, a kink or crushed spot, a tap) or a "
-                       "short piece of lower impedance",
-                       ("lower_impedance",))
-    if ev.shape == "relaxing":
-        tau = ev.time_constant_s
-        tau_text = f" (time constant about {_eng(tau, 's')})" if tau else ""
-        if ev.size < 0:
-            return Verdict("capacitive_load", round(0.7 * snr_score, 2),
-                           f"falls like a short, then relaxes to {ev.level_settled:+.3f} "
-                           f"({zt}){tau_text}: a capacitive load or a capacitor across the line",
-                           ("lower_impedance",))
-        return Verdict("inductive_load", round(0.7 * snr_score, 2),
-                       f"rises like an open, then relaxes to {ev.level_settled:+.3f} "
-                       f"({zt}){tau_text}: an inductive load or an inductance in series",
-                       ("higher_impedance",))
-    # a lasting step
     reached = ev.level_before + ev.size / scale
-    loss_note = " (allowing for the cable's loss)" if scale < 0.98 else ""
+
+    def verdict(kind, factor, alternatives=()):
+        return Verdict(kind, round(min(max(factor * snr_score, 0.0), 1.0), 2),
+                       tuple(alternatives), reached)
+
+    if after_end or bounce:
+        return verdict("re_reflection", 0.7)
+    if ev.shape in ("bump", "dip") and at_far_end:
+        if ev.shape == "bump":
+            return verdict("inductive_load", 0.7, ("inductive_bump",))
+        return verdict("capacitive_load", 0.7, ("capacitive_dip",))
+    if ev.shape == "bump":
+        return verdict("inductive_bump", 0.75, ("higher_impedance",))
+    if ev.shape == "dip":
+        return verdict("capacitive_dip", 0.75, ("lower_impedance",))
+    if ev.shape == "relaxing":
+        if ev.size < 0:
+            return verdict("capacitive_load", 0.7, ("lower_impedance",))
+        return verdict("inductive_load", 0.7, ("higher_impedance",))
+    clear = 0.95 if scale >= 0.98 else 0.8
     if ev.size > 0 and reached >= OPEN_SHORT_LEVEL:
         margin = min(1.0, (reached - OPEN_SHORT_LEVEL) / (1.0 - OPEN_SHORT_LEVEL) + 0.5)
-        where = " at the end of the run" if at_far_end else ""
-        return Verdict("open", round(snr_score * margin * (0.95 if scale >= 0.98 else 0.8), 2),
-                       f"rises to {ev.level_after:+.3f}{loss_note}: an open{where}, or a very "
-                       "high impedance (a broken centre conductor, an unterminated end)",
-                       ("higher_impedance",))
+        return verdict("open", clear * margin, ("higher_impedance",))
     if ev.size < 0 and reached <= -OPEN_SHORT_LEVEL:
         margin = min(1.0, (-OPEN_SHORT_LEVEL - reached) / (1.0 - OPEN_SHORT_LEVEL) + 0.5)
-        where = " at the end of the run" if at_far_end else ""
-        return Verdict("short", round(snr_score * margin * (0.95 if scale >= 0.98 else 0.8), 2),
-                       f"falls to {ev.level_after:+.3f}{loss_note}: a short{where}, or a very "
-                       "low impedance (a crushed or shorted cable, water in a connector)",
-                       ("lower_impedance",))
+        return verdict("short", clear * margin, ("lower_impedance",))
     if at_far_end:
-        return Verdict("end_of_run", round(0.85 * snr_score, 2),
-                       f"step of {ev.size:+.3f} at the far end of the run: a load of about {zt}",
+        return verdict("end_of_run", 0.85,
                        ("higher_impedance" if ev.size > 0 else "lower_impedance",))
-    tail = " or, if the run ends here, a load of about " + zt if is_last else ""
-    certainty = 0.6 if is_last else 0.75
-    if ev.size > 0:
-        return Verdict("higher_impedance", round(certainty * snr_score, 2),
-                       f"step up of {ev.size:+.3f} to about {zt}: a higher-impedance section "
-                       f"(a different cable, a stretched or damaged spot){tail}",
-                       ("end_of_run",) if is_last else ())
-    return Verdict("lower_impedance", round(certainty * snr_score, 2),
-                   f"step down of {ev.size:+.3f} to about {zt}: a lower-impedance section "
-                   f"(water in the cable, a crushed spot, a different cable){tail}",
-                   ("end_of_run",) if is_last else ())
+    kind = "higher_impedance" if ev.size > 0 else "lower_impedance"
+    return verdict(kind, 0.6 if is_last else 0.75, ("end_of_run",) if is_last else ())
 
 
-def _name_all(events: list[Event], z0_ohm: float, loss_scales=None, far_end=None) -> list[Event]:
-    """Name every event in order; what follows an open, a short or the far end
-    of the run is a re-reflection."""
-    out = []
-    ended = False
-    for i, ev in enumerate(events):
-        verdict = classify(ev, z0_ohm,
-                           loss_scale=1.0 if loss_scales is None else loss_scales[i],
-                           is_last=i == len(events) - 1,
-                           at_far_end=bool(far_end and far_end[i]),
-                           after_end=ended or (ev.beyond_end and not (far_end and far_end[i])))
-        out.append(replace(ev, kind=verdict.kind, confidence=verdict.confidence,
-                           description=verdict.description, alternatives=verdict.alternatives))
-        ended = ended or verdict.kind in ("open", "short") or bool(far_end and far_end[i])
+def _bounces(events: list[Event], rise_s: float, threshold: float
+             ) -> list[tuple[int, int] | None]:
+    """For each event, (i, j) when it is timed and sized as a second trip
+    between earlier events i < j, else None (all pairs at once, with numpy)."""
+    n = len(events)
+    out: list[tuple[int, int] | None] = [None] * n
+    if n < 3:
+        return out
+    t = np.array([e.round_trip_delay_s for e in events])
+    size = np.abs(np.array([e.size for e in events]))
+    i, j = np.triu_indices(n, k=1)
+    when = 2.0 * t[j] - t[i]
+    most = BOUNCE_SIZE * size[i] * size[j] + 3.0 * threshold
+    for k in range(2, n):
+        fits = (j < k) & (np.abs(t[k] - when) <= BOUNCE_RISE_TIMES * rise_s) & (size[k] <= most)
+        if fits.any():
+            m = int(np.flatnonzero(fits)[0])
+            out[k] = (int(i[m]), int(j[m]))
     return out
 
 
-def _z_text(z: float) -> str:
-    if not math.isfinite(z):
-        return "an open"
-    return f"{z:.3g} ohm"
-
-
-def _eng(value: float, unit: str) -> str:
-    if value is None or not math.isfinite(value) or value == 0:
-        return f"0 {unit}"
-    for scale, prefix in ((1.0, ""), (1e-3, "m"), (1e-6, "u"), (1e-9, "n"), (1e-12, "p"),
-                          (1e-15, "f")):
-        if abs(value) >= scale:
-            return f"{value / scale:.3g} {prefix}{unit}"
-    return f"{value:.3g} {unit}"
+def _name_all(events: list[Event], rise_s: float, threshold: float, loss_scales=None,
+              far_end=None) -> list[Event]:
+    """Name every event in order; what follows an open, a short or the far end
+    of the run, or what is timed as a second trip between two earlier
+    events, is a re-reflection."""
+    out: list[Event] = []
+    ended = False
+    bounces = _bounces(events, rise_s, threshold)
+    for k, ev in enumerate(events):
+        at_end = bool(far_end and far_end[k])
+        bounce = bounces[k]
+        verdict = classify(ev, loss_scale=1.0 if loss_scales is None else loss_scales[k],
+                           is_last=k == len(events) - 1, at_far_end=at_end,
+                           after_end=ended or (ev.beyond_end and not at_end),
+                           bounce=bounce is not None)
+        out.append(replace(ev, kind=verdict.kind, confidence=verdict.confidence,
+                           alternatives=verdict.alternatives, level_reached=verdict.reached,
+                           bounce_of=bounce))
+        ended = ended or verdict.kind in ("open", "short") or at_end
+    return out
 
 
 # ---------------------------------------------------------------------- place
@@ -855,7 +839,8 @@ def place(analysis: Analysis, *, vf: float | None = None, vf_tolerance: float = 
         placed.append(replace(first, loss_delay_s=lag, loss_scale=effect.scale))
         scales.append(effect.scale)
     far_end = [ev.at_far_end for ev in placed]
-    return replace(analysis, events=tuple(_name_all(placed, analysis.z0_ohm, scales, far_end)))
+    return replace(analysis, events=tuple(_name_all(placed, rise, analysis.threshold, scales,
+                                                    far_end)))
 
 
 def run_segments(segments):

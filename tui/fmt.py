@@ -132,3 +132,9 @@ def table(rows: list[tuple[str, ...]], right: tuple[int, ...] = (),
 def vswr(x: float) -> str:
     """A VSWR to two decimals (``"1.13"``), ``"infinite"`` for a total reflection."""
     return "infinite" if x is None or not math.isfinite(x) else f"{x:.2f}"
+
+
+def component(value: float, unit: str, digits: int = 3) -> str:
+    """An inductance (``"H"``) or capacitance (``"F"``) with an SI prefix: ``"6.1 nH"``."""
+    return _scaled(value, unit, ((1.0, ""), (1e-3, "m"), (1e-6, "u"), (1e-9, "n"),
+                                 (1e-12, "p"), (1e-15, "f")), digits)

@@ -273,8 +273,9 @@ def expected_record(x) -> dict:
             "tolerance_m": x.tolerance_m}
 
 
-def pairing_record(p, events) -> dict:
-    return {"expected": expected_record(p.expected), "found": event_record(p.found),
+def pairing_record(p, events, z0_ohm: float) -> dict:
+    return {"expected": expected_record(p.expected),
+            "found": event_record(p.found, z0_ohm, events),
             "event_number": events.index(p.found) + 1, "offset_s": p.offset_s,
             "offset_m": p.offset_m, "size_differs": p.size_differs,
             "kind_differs": p.kind_differs}
@@ -283,11 +284,11 @@ def pairing_record(p, events) -> dict:
 def comparison_data(cmp, analysis) -> dict:
     events = list(analysis.events)
     return {
-        "matched": [pairing_record(p, events) for p in cmp.matched],
-        "misplaced": [pairing_record(p, events) for p in cmp.misplaced],
+        "matched": [pairing_record(p, events, analysis.z0_ohm) for p in cmp.matched],
+        "misplaced": [pairing_record(p, events, analysis.z0_ohm) for p in cmp.misplaced],
         "missing": [expected_record(x) for x in cmp.missing],
-        "unexpected": [{**event_record(e), "event_number": events.index(e) + 1}
-                       for e in cmp.unexpected],
+        "unexpected": [{**event_record(e, analysis.z0_ohm, events),
+                        "event_number": events.index(e) + 1} for e in cmp.unexpected],
         "outside_window": [expected_record(x) for x in cmp.outside],
         "vf_tolerance": cmp.vf_tolerance,
     }
@@ -339,7 +340,7 @@ def describe_comparison(cmp, analysis, units: str, fraction: int) -> list[str]:
     return out
 
 
-def event_record(e) -> dict:
+def event_record(e, z0_ohm: float, events=()) -> dict:
     """One event as a JSON record (shared with the TUI's export)."""
     return {
         "round_trip_delay_s": e.round_trip_delay_s,
@@ -362,17 +363,82 @@ def event_record(e) -> dict:
         "shape": e.shape,
         "kind": e.kind,
         "confidence": e.confidence,
-        "description": e.description,
+        "description": describe_event(e, z0_ohm, events),
         "snr": e.snr,
         "time_constant_s": e.time_constant_s,
         "capacitance_f": e.capacitance_f,
         "inductance_h": e.inductance_h,
         "alternatives": list(e.alternatives),
+        "bounce_of_events": None if e.bounce_of is None else [k + 1 for k in e.bounce_of],
     }
 
 
 def _kind_text(kind: str) -> str:
     return kind.replace("_", " ")
+
+
+def describe_event(e, z0_ohm: float, events=()) -> str:
+    """One plain sentence on what the event probably is (shared with the TUI).
+
+    The wording says what else it could be; it never says a line is safe.
+    """
+    from calc.events import implied_impedance
+    from tui import fmt
+
+    def z_text(level: float) -> str:
+        z = implied_impedance(level, z0_ohm)
+        return "an open" if z == float("inf") else fmt.impedance(z, 3)
+
+    loss = " (allowing for the cable's loss)" if e.loss_scale < 0.98 else ""
+    at_end = " at the end of the run" if e.at_far_end else ""
+    kind = e.kind
+    if kind == "re_reflection":
+        if e.bounce_of is not None and events:
+            a, b = (events[k] for k in e.bounce_of)
+            return (f"{e.size:+.3f}, timed as a second trip between the reflections at "
+                    f"{fmt.time(a.round_trip_delay_s)} and {fmt.time(b.round_trip_delay_s)}: "
+                    "a re-reflection, not a fault of its own")
+        return (f"{e.size:+.3f} after the far end (an open, a short or the end of the described "
+                "run): most likely a re-reflection, the wave's second trip between two "
+                "mismatches; or the run is longer than described")
+    if kind == "open":
+        return (f"rises to {e.level_after:+.3f}{loss}: an open{at_end}, or a very high "
+                "impedance (a broken centre conductor, an unterminated end)")
+    if kind == "short":
+        return (f"falls to {e.level_after:+.3f}{loss}: a short{at_end}, or a very low "
+                "impedance (a crushed or shorted cable, water in a connector)")
+    if kind == "end_of_run":
+        return f"step of {e.size:+.3f} at the far end of the run: a load of about " \
+               f"{z_text(e.level_after)}"
+    settles = f"it settles to {e.level_settled:+.3f}, {z_text(e.level_settled)}"
+    tau = f", time constant about {fmt.time(e.time_constant_s, 3)}" if e.time_constant_s else ""
+    if kind == "inductive_load" and e.shape == "bump":
+        return (f"brief bump of {e.size:+.3f} at the far end: a load with about "
+                f"{fmt.component(e.inductance_h or 0.0, 'H')} in series ({settles})")
+    if kind == "capacitive_load" and e.shape == "dip":
+        return (f"brief dip of {e.size:+.3f} at the far end: a load with about "
+                f"{fmt.component(e.capacitance_f or 0.0, 'F')} across it ({settles})")
+    if kind == "capacitive_load":
+        return (f"falls like a short, then relaxes upward ({settles}{tau}): a capacitive load "
+                "or a capacitor across the line")
+    if kind == "inductive_load":
+        return (f"rises like an open, then relaxes downward ({settles}{tau}): an inductive "
+                "load or an inductance in series")
+    if kind == "inductive_bump":
+        return (f"brief bump of {e.size:+.3f}: a series inductance of about "
+                f"{fmt.component(e.inductance_h or 0.0, 'H')} (a connector, a splice, a "
+                "pigtail) or a short piece of higher impedance")
+    if kind == "capacitive_dip":
+        return (f"brief dip of {e.size:+.3f}: a shunt capacitance of about "
+                f"{fmt.component(e.capacitance_f or 0.0, 'F')} (a connector, a kink or crushed "
+                "spot, a tap) or a short piece of lower impedance")
+    tail = (f" or, if the run ends here, a load of about {z_text(e.level_after)}"
+            if "end_of_run" in e.alternatives else "")
+    if kind == "higher_impedance":
+        return (f"step up of {e.size:+.3f} to about {z_text(e.level_after)}: a higher-impedance "
+                f"section (a different cable, a stretched or damaged spot){tail}")
+    return (f"step down of {e.size:+.3f} to about {z_text(e.level_after)}: a lower-impedance "
+            f"section (water in the cable, a crushed spot, a different cable){tail}")
 
 
 def _where(e, units: str, fraction: int) -> str:
@@ -436,7 +502,7 @@ def describe(info: dict, notes: list[str], analysis, units: str, fraction: int) 
             lines.append(f"{i:>2}  {fmt.time(e.round_trip_delay_s):>10}  {dist:>15}  "
                          f"{e.size:+7.3f}  {z:>7}  {_kind_text(e.kind):<17} {e.confidence:4.2f}")
             where = _where(e, units, fraction)
-            for text in ([where] if where else []) + [e.description]:
+            for text in ([where] if where else []) + [describe_event(e, a.z0_ohm, a.events)]:
                 lines += textwrap.wrap(text, _WIDTH, initial_indent="    ",
                                        subsequent_indent="    ")
         if bounces > SHOWN_BOUNCES:
@@ -458,7 +524,7 @@ def run(args) -> int:
         "sample_interval_s": a.sample_interval_s,
         "noise_rms": a.noise_rms,
         "threshold": a.threshold,
-        "events": [event_record(e) for e in a.events],
+        "events": [event_record(e, a.z0_ohm, a.events) for e in a.events],
         "notes": list(a.notes) + notes,
     }
     lines = describe(info, notes, analysis, units, fraction)
