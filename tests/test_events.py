@@ -34,6 +34,7 @@ from calc.events import analyse, compare, place
 from calc.loads import parse_load
 from calc.run import RunSegment
 from calc.simulate import Lump, Segment, simulate
+from tui.commands.trace import describe_event
 from tui.demo.traces import instrument_trace
 
 RISE_S = 0.5e-9
@@ -90,9 +91,17 @@ def test_every_true_event_found_placed_and_named(spec, load, lumps, truth, seed)
     assert len(events) == len(truth), [(e.distance_m, e.kind) for e in analysis.events]
     for ev, (distance, kind) in zip(events, truth, strict=True):
         assert ev.distance_m == pytest.approx(distance, abs=tolerance)
-        assert ev.kind == kind, ev.description
+        assert ev.kind == kind, describe_event(ev, 50.0, analysis.events)
         assert 0 < ev.confidence <= 1
-        assert "safe" not in ev.description.lower()
+
+
+def test_wording_never_says_safe():
+    # Project rule: no wording that states or implies "safe"; every kind's sentence checked.
+    for spec, load, lumps, _truth in SCENARIOS:
+        a = _found(spec, load, lumps)
+        for ev in a.events:
+            text = describe_event(ev, 50.0, a.events).lower()
+            assert text and "safe" not in text and "ok to" not in text
 
 
 @pytest.mark.parametrize("seed", range(20))
