@@ -943,8 +943,9 @@ def compare(analysis: Analysis, prediction, segments, *, vf_tolerance: float = 0
     Matching: same sign of size, re-reflections only with re-reflections;
     pairs are taken closest first (in units of their tolerance, plus
     :data:`KIND_PENALTY` when the kinds differ), each event at most once.
-    Offsets are measured on the prediction's own distance axis, so the
-    loss's lag (the same on both) cancels.
+    Offsets are between the placed distances (each with the loss's lag
+    taken off), or on the prediction's distance axis for an event that could
+    not be placed.
     """
     expected = expected_events(prediction, analysis, segments, vf_tolerance)
     lo, hi = analysis.start_delay_s, analysis.end_delay_s
@@ -975,10 +976,13 @@ def compare(analysis: Analysis, prediction, segments, *, vf_tolerance: float = 0
         used_x.add(i)
         used_f.add(j)
         x, ev = inside[i], found[j]
-        offset_m = float(np.interp(ev.round_trip_delay_s, prediction.time_s,
-                                   prediction.distance_m)
-                         - np.interp(x.round_trip_delay_s, prediction.time_s,
-                                     prediction.distance_m))
+        if ev.distance_m is not None and not ev.beyond_end:
+            offset_m = ev.distance_m - x.distance_m  # both placed, the loss's lag taken off
+        else:
+            offset_m = float(np.interp(ev.round_trip_delay_s, prediction.time_s,
+                                       prediction.distance_m)
+                             - np.interp(x.round_trip_delay_s, prediction.time_s,
+                                         prediction.distance_m))
         size_differs = abs(ev.size - x.size) > max(0.3 * abs(x.size), 3 * analysis.threshold)
         pairing = Pairing(x, ev, dt, offset_m, size_differs, ev.kind != x.kind)
         (matched if abs(dt) <= x.tolerance_s else misplaced).append(pairing)

@@ -334,10 +334,7 @@ def describe_comparison(cmp, analysis, units: str, fraction: int) -> list[str]:
         lines.append("  every event is where the expected run puts it")
     lines.append(f"  (matched within {TOLERANCE_RISE_TIMES:g} rise times plus the cables' VF "
                  f"tolerance, {cmp.vf_tolerance * 100:.3g} % of the delay)")
-    out = []
-    for line in lines:
-        out += textwrap.wrap(line, _WIDTH, subsequent_indent="      ") or [""]
-    return out
+    return _fit(lines)
 
 
 def event_record(e, z0_ohm: float, events=()) -> dict:
@@ -510,7 +507,16 @@ def describe(info: dict, notes: list[str], analysis, units: str, fraction: int) 
                          "(all of them with --json)")
     for note in list(a.notes) + notes:
         lines += textwrap.wrap("note: " + note, _WIDTH, subsequent_indent="      ")
-    return lines
+    return _fit(lines)
+
+
+def _fit(lines: list[str]) -> list[str]:
+    """Lines wrapped to the 80 columns of a field laptop's terminal."""
+    out = []
+    for line in lines:
+        out += textwrap.wrap(line, _WIDTH, subsequent_indent="    ",
+                             break_on_hyphens=False) if len(line) > _WIDTH else [line]
+    return out
 
 
 def run(args) -> int:

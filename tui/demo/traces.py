@@ -58,7 +58,7 @@ KESTREL_EVENTS = (
 )
 MILLPOND_EVENTS = (
     TrueEvent(11.0, "capacitive_dip"),
-    TrueEvent(18.0, "end_of_run"),
+    TrueEvent(18.0, "short"),  # 8 ohm on 75 ohm: rho = -0.81, past the short limit of -0.8
 )
 
 
