@@ -215,12 +215,13 @@ def _crossing(t: np.ndarray, y: np.ndarray, level: float, near: int, lo: int, hi
     return float(t[i] + frac * (t[i + 1] - t[i]))
 
 
-def _uniform(time_s: np.ndarray, level: np.ndarray) -> tuple[np.ndarray, np.ndarray, bool]:
+def _uniform(time_s: np.ndarray, level: np.ndarray, steps: np.ndarray
+             ) -> tuple[np.ndarray, np.ndarray, bool]:
     """The trace on a uniform time grid (resampled linearly if the steps vary)."""
-    steps = np.diff(time_s)
-    dt = float(np.median(steps))
+    dt = float(time_s[-1] - time_s[0]) / (time_s.size - 1)
     if np.max(np.abs(steps - dt)) <= UNIFORM_TOLERANCE * dt:
         return time_s, level, False
+    dt = float(np.median(steps))
     n = int(math.floor((time_s[-1] - time_s[0]) / dt)) + 1
     t = time_s[0] + dt * np.arange(n)
     return t, np.interp(t, time_s, level), True
@@ -296,11 +297,12 @@ def analyse(time_s: np.ndarray, level: np.ndarray, *, z0_ohm: float = 50.0,
         raise InputError("trace", "a trace needs at least 8 samples of time and level")
     if not (np.isfinite(t).all() and np.isfinite(v).all()):
         raise InputError("trace", "the trace holds values that are not finite")
-    if (np.diff(t) <= 0).any():
+    steps = np.diff(t)
+    if (steps <= 0).any():
         raise InputError("trace", "time must increase from sample to sample")
     if not (math.isfinite(z0_ohm) and z0_ohm > 0):
         raise InputError("--z0", "Z0 must be a positive number of ohms", "50 ohm")
-    t, v, resampled = _uniform(t, v)
+    t, v, resampled = _uniform(t, v, steps)
     dt = float(t[1] - t[0])
     notes: list[str] = []
     if resampled:
@@ -326,19 +328,20 @@ def analyse(time_s: np.ndarray, level: np.ndarray, *, z0_ohm: float = 50.0,
     if span.size < 4:
         raise InputError("trace", "the trace ends too soon after the incident edge to analyse")
     sigma_d = _mad_sigma(span)
-    noise_rms = _mad_sigma(np.diff(rho[lo:hi])) / math.sqrt(2.0)
+    k_thin = max(1, (hi - lo) // 250_000)  # pairs of neighbours, thinned like _mad_sigma
+    noise_rms = _mad_sigma(rho[lo + 1:hi:k_thin] - rho[lo:hi - 1:k_thin]) / math.sqrt(2.0)
     k = math.sqrt(2.0 * math.log(max(span.size / w, 2.0))) + 1.5
     threshold = max(k * sigma_d, min_size)
     mask = np.zeros(rho.size, dtype=bool)
     mask[lo:hi] = np.abs(span) > threshold
     groups = _groups(_cores(mask, np.abs(d), threshold), d, 2 * a + w, threshold)
-    smooth = _box(rho, max(1, int(n_rise // 3)))
+    smooth_width = max(1, int(n_rise // 3))
     events: list[Event] = []
     window = max(w, 4)
     for gi, (s, e) in enumerate(groups):
         prev_end = groups[gi - 1][1] if gi else lo - (a + w)
         next_start = groups[gi + 1][0] if gi + 1 < len(groups) else rho.size
-        ev = _measure(t, rho, smooth, d, s, e, prev_end, next_start, window, t_zero,
+        ev = _measure(t, rho, smooth_width, d, s, e, prev_end, next_start, window, t_zero,
                       sigma_d, threshold, z0_ohm, dt, n_rise)
         if ev is None:
             continue
@@ -461,14 +464,20 @@ def _groups(edges: list[tuple[int, int]], d: np.ndarray, gap: int, threshold: fl
     return out
 
 
-def _measure(t, rho, smooth, d, s, e, prev_end, next_start, window, t_zero, sigma_d,
+def _measure(t, rho, smooth_width, d, s, e, prev_end, next_start, window, t_zero, sigma_d,
              threshold, z0_ohm, dt, n_rise) -> Event | None:
     """Levels, delay and shape of one group of samples [s, e].
 
     The level after is the median around SETTLE_RISE_TIMES rise times past the
     edge (where the predictor's arrival sizes are taken too), or just after
-    the edge when the next event comes sooner.
+    the edge when the next event comes sooner. Crossings and peaks are read on
+    a lightly smoothed copy of the stretch up to the next event.
     """
+    n = rho.size
+    k0 = max(s - smooth_width, 0)
+    k1 = min(max(next_start, e + 1) + smooth_width, n)
+    tt = t[k0:k1]
+    sm = _box(rho[k0:k1], smooth_width)  # index i of the trace is sm[i - k0]
     b0 = max(prev_end + 1, s - window, 0)
     before = float(np.median(rho[b0:s])) if s > b0 else float(rho[max(s - 1, 0)])
     i_d = s + int(np.argmax(np.abs(d[s:e + 1])))
@@ -481,7 +490,7 @@ def _measure(t, rho, smooth, d, s, e, prev_end, next_start, window, t_zero, sigm
     s0 = max(next_start - window, e + 1)
     s1 = min(next_start, rho.size)
     settled = float(np.median(rho[s0:s1])) if s1 > s0 else after
-    seg = smooth[s:e + 1] - before
+    seg = sm[s - k0:e + 1 - k0] - before
     k_peak = int(np.argmax(np.abs(seg)))
     excursion = float(seg[k_peak])
     net = after - before
@@ -503,17 +512,17 @@ def _measure(t, rho, smooth, d, s, e, prev_end, next_start, window, t_zero, sigm
     i_peak = s + k_peak
     peak = before + excursion
     if shape in ("bump", "dip"):
-        time = _peak_time(t, smooth, i_peak)
+        time = _peak_time(tt, sm, i_peak - k0)
         size = excursion
         tail = min(e + 1 + 2 * (e - s + 1), next_start, rho.size)  # slow tails of reactances
         area = float(np.sum(rho[s:tail] - before) * dt)
         level_for_z = peak
     elif shape == "relaxing":
-        time = _crossing(t, smooth, before + 0.5 * excursion, i_peak, s, i_peak)
+        time = _crossing(tt, sm, before + 0.5 * excursion, i_peak - k0, s - k0, i_peak - k0)
         size = excursion
         level_for_z = settled
     else:
-        time = _crossing(t, smooth, 0.5 * (before + after), i_d, s, e)
+        time = _crossing(tt, sm, 0.5 * (before + after), i_d - k0, s - k0, e - k0)
         size = net
         level_for_z = after
     if abs(size) < threshold:  # swings that come back to nothing within the noise
@@ -521,7 +530,7 @@ def _measure(t, rho, smooth, d, s, e, prev_end, next_start, window, t_zero, sigm
     snr = abs(size) / sigma_d if sigma_d > 0 else math.inf
     tau = None
     if shape == "relaxing":
-        tau = _time_constant(t, smooth, i_peak, min(next_start, rho.size) - 1, peak, settled)
+        tau = _time_constant(tt, sm, i_peak - k0, min(next_start, n) - 1 - k0, peak, settled)
     cap = ind = None
     if shape == "dip":
         cap = -2.0 * area / z0_ohm
