@@ -223,6 +223,10 @@ def analyse_file(args):
         level = got.level
         if args.incident == "auto":
             incident = got.level_unit != "rho"
+            if not got.level_unit and not args.level_unit:
+                notes.append("the level's unit is not stated: it is taken as the instrument's "
+                             "own, with its incident edge in the trace; if the trace holds "
+                             "reflections only, give --level-unit rho")
         else:
             incident = args.incident == "in-trace"
         if not incident and got.level_unit == "V":
