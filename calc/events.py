@@ -107,6 +107,7 @@ class Event:
     peak_level: float
     impedance_ohm: float
     shape: str  # "step", "bump", "dip" or "relaxing"
+    timing: str  # "edge" (50 % of the leading edge) or "peak" (a brief bump's or dip's)
     kind: str
     confidence: float
     snr: float
@@ -399,6 +400,9 @@ def _runs(mask: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
     return np.flatnonzero(edges == 1), np.flatnonzero(edges == -1) - 1
 
 
+#: A bump or dip wider than this many rise times at half its height is a
+#: slow reactance, placed by its leading edge rather than its peak.
+BROAD_RISE_TIMES = 2.0
 #: Rise times after an edge at which the level after it is read.
 SETTLE_RISE_TIMES = 8.0
 #: Within a run above the threshold, only samples above this fraction of the
@@ -481,12 +485,16 @@ def _measure(t, rho, smooth_width, d, s, e, prev_end, next_start, window, t_zero
     b0 = max(prev_end + 1, s - window, 0)
     before = float(np.median(rho[b0:s])) if s > b0 else float(rho[max(s - 1, 0)])
     i_d = s + int(np.argmax(np.abs(d[s:e + 1])))
-    centre = i_d + int(SETTLE_RISE_TIMES * n_rise)
-    half = max(2, int(n_rise))
-    a0, a1 = max(centre - half, e + 1), min(centre + half, next_start, rho.size)
-    if a1 <= a0:
-        a0, a1 = e + 1, min(e + 1 + window, next_start, rho.size)
-    after = float(np.median(rho[a0:a1])) if a1 > a0 else float(rho[min(e, rho.size - 1)])
+
+    def level_after(i_edge: int) -> float:
+        centre = i_edge + int(SETTLE_RISE_TIMES * n_rise)
+        half = max(2, int(n_rise))
+        a0, a1 = max(centre - half, i_edge + 1), min(centre + half, next_start, n)
+        if a1 <= a0:
+            a0, a1 = e + 1, min(e + 1 + window, next_start, n)
+        return float(np.median(rho[a0:a1])) if a1 > a0 else float(rho[min(e, n - 1)])
+
+    after = level_after(i_d)
     s0 = max(next_start - window, e + 1)
     s1 = min(next_start, rho.size)
     settled = float(np.median(rho[s0:s1])) if s1 > s0 else after
@@ -505,14 +513,25 @@ def _measure(t, rho, smooth_width, d, s, e, prev_end, next_start, window, t_zero
         shape = "bump" if excursion > 0 else "dip"
     elif abs(against) > max(4 * threshold, 0.15 * abs(final)):
         shape, excursion, k_peak = "relaxing", against, k_against
-    elif abs(excursion) - abs(net) > max(0.3 * abs(net), 4 * threshold):
-        shape = "relaxing"  # overshoots, then settles the same way (an L into a load)
+    elif min(abs(excursion) - abs(net), abs(excursion) - abs(settled - before)) > \
+            max(0.3 * abs(net), 4 * threshold):
+        shape = "relaxing"  # overshoots, then comes back part way (an L into a load)
+    elif (settled - after) * net < 0 and abs(settled - after) > max(0.25 * abs(net),
+                                                                     4 * threshold):
+        shape = "relaxing"  # steps, then drifts back (a slow reactance)
     else:
         shape = "step"
     i_peak = s + k_peak
     peak = before + excursion
+    timing = "edge"
     if shape in ("bump", "dip"):
-        time = _peak_time(tt, sm, i_peak - k0)
+        # A brief one is placed at its peak (the derivative of the edge peaks at
+        # the edge's midpoint); a broad one (a slow reactance) by its leading edge.
+        above = np.abs(seg) >= 0.5 * abs(excursion)
+        if int(np.count_nonzero(above)) <= BROAD_RISE_TIMES * n_rise:
+            time, timing = _peak_time(tt, sm, i_peak - k0), "peak"
+        else:
+            time = _crossing(tt, sm, before + 0.5 * excursion, i_peak - k0, s - k0, i_peak - k0)
         size = excursion
         tail = min(e + 1 + 2 * (e - s + 1), next_start, rho.size)  # slow tails of reactances
         area = float(np.sum(rho[s:tail] - before) * dt)
@@ -522,8 +541,15 @@ def _measure(t, rho, smooth_width, d, s, e, prev_end, next_start, window, t_zero
         size = excursion
         level_for_z = settled
     else:
-        time = _crossing(tt, sm, 0.5 * (before + after), i_d - k0, s - k0, e - k0)
-        size = net
+        # The 50 % point, and the level after read from it (not from the filter's
+        # peak, which wanders along a slow, loss-spread edge): twice, to settle.
+        i_mid = i_d
+        for _ in range(2):
+            time = _crossing(tt, sm, 0.5 * (before + after), i_mid - k0, s - k0, e - k0)
+            i_mid = min(max(int(np.searchsorted(t, time)), s), e)
+            after = level_after(i_mid)
+        time = _crossing(tt, sm, 0.5 * (before + after), i_mid - k0, s - k0, e - k0)
+        size = after - before
         level_for_z = after
     if abs(size) < threshold:  # swings that come back to nothing within the noise
         return None
@@ -540,7 +566,7 @@ def _measure(t, rho, smooth_width, d, s, e, prev_end, next_start, window, t_zero
         round_trip_delay_s=time - t_zero, size=size, level_before=before, level_after=after,
         level_settled=settled, peak_level=peak,
         impedance_ohm=implied_impedance(level_for_z, z0_ohm), shape=shape, kind="",
-        confidence=0.0, snr=snr, time_constant_s=tau, capacitance_f=cap,
+        confidence=0.0, snr=snr, timing=timing, time_constant_s=tau, capacitance_f=cap,
         inductance_h=ind)
 
 
@@ -828,7 +854,9 @@ def place(analysis: Analysis, *, vf: float | None = None, vf_tolerance: float = 
     When ``with_loss`` and the cables (``segments``, or the one ``cable``)
     carry a loss model, a step's delay is first corrected for the lag that
     loss gives its 50 % point (a brief bump's or dip's for the lag of its
-    peak), and every event's size is weighed against the loss in front of it (:func:`loss_effect`); ``loss_delay_s`` and
+    peak; a slow reactance's first swing, faster than a full step, for half
+    the step's lag, which the tests find good to a centimetre or two), and
+    every event's size is weighed against the loss in front of it (:func:`loss_effect`); ``loss_delay_s`` and
     ``loss_scale`` say by how much. Past the far end the last cable is taken
     to go on. The events are then named again with that knowledge.
     """
@@ -841,8 +869,12 @@ def place(analysis: Analysis, *, vf: float | None = None, vf_tolerance: float = 
         effect = LossEffect()
         if with_loss and first.distance_m:
             effect = loss_effect(first.distance_m, rise, segments, cable, analysis.threshold)
-        lag = {"step": effect.delay_s, "bump": effect.peak_delay_s,
-               "dip": effect.peak_delay_s}.get(ev.shape, 0.0)
+        if ev.timing == "peak":
+            lag = effect.peak_delay_s
+        elif ev.shape == "step":
+            lag = effect.delay_s
+        else:  # a reactance's first swing is faster than a full step: half its lag
+            lag = 0.5 * effect.delay_s
         if lag > 0:
             first = _placed(ev, ev.round_trip_delay_s - lag, rise, vf, vf_tolerance, segments)
         placed.append(replace(first, loss_delay_s=lag, loss_scale=effect.scale))
