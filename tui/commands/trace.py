@@ -402,12 +402,14 @@ def describe_event(e, z0_ohm: float, events=()) -> str:
         return (f"{e.size:+.3f} after the far end (an open, a short or the end of the described "
                 "run): most likely a re-reflection, the wave's second trip between two "
                 "mismatches; or the run is longer than described")
+    creep = (f" and creeps on to {e.level_settled:+.3f}"
+             if abs(e.level_settled - e.level_after) > 0.05 else "")
     if kind == "open":
-        return (f"rises to {e.level_after:+.3f}{loss}: an open{at_end}, or a very high "
-                "impedance (a broken centre conductor, an unterminated end)")
+        return (f"rises to {e.level_after:+.3f}{creep}{loss}: an open{at_end}, or a very "
+                "high impedance (a broken centre conductor, an unterminated end)")
     if kind == "short":
-        return (f"falls to {e.level_after:+.3f}{loss}: a short{at_end}, or a very low "
-                "impedance (a crushed or shorted cable, water in a connector)")
+        return (f"falls to {e.level_after:+.3f}{creep}{loss}: a short{at_end}, or a very "
+                "low impedance (a crushed or shorted cable, water in a connector)")
     if kind == "end_of_run":
         return f"step of {e.size:+.3f} at the far end of the run: a load of about " \
                f"{z_text(e.level_after)}"
