@@ -984,9 +984,8 @@ def compare(analysis: Analysis, prediction, segments, *, vf_tolerance: float = 0
     Matching: same sign of size, re-reflections only with re-reflections;
     pairs are taken closest first (in units of their tolerance, plus
     :data:`KIND_PENALTY` when the kinds differ), each event at most once.
-    Offsets are between the placed distances (each with the loss's lag
-    taken off), or on the prediction's distance axis for an event that could
-    not be placed.
+    Offsets are distances along the expected run, each event's delay with
+    the loss's lag taken off.
     """
     expected = expected_events(prediction, analysis, segments, vf_tolerance)
     lo, hi = analysis.start_delay_s, analysis.end_delay_s
@@ -1017,13 +1016,10 @@ def compare(analysis: Analysis, prediction, segments, *, vf_tolerance: float = 0
         used_x.add(i)
         used_f.add(j)
         x, ev = inside[i], found[j]
-        if ev.distance_m is not None and not ev.beyond_end:
-            offset_m = ev.distance_m - x.distance_m  # both placed, the loss's lag taken off
-        else:
-            offset_m = float(np.interp(ev.round_trip_delay_s, prediction.time_s,
-                                       prediction.distance_m)
-                             - np.interp(x.round_trip_delay_s, prediction.time_s,
-                                         prediction.distance_m))
+        # both on the expected run, each with the loss's lag taken off
+        on_run = _placed(ev, ev.round_trip_delay_s - ev.loss_delay_s, analysis.rise_time_s,
+                         None, 0.0, segments)
+        offset_m = on_run.distance_m - x.distance_m
         size_differs = abs(ev.size - x.size) > max(0.3 * abs(x.size), 3 * analysis.threshold)
         pairing = Pairing(x, ev, dt, offset_m, size_differs, ev.kind != x.kind)
         (matched if abs(dt) <= x.tolerance_s else misplaced).append(pairing)
