@@ -984,8 +984,10 @@ def compare(analysis: Analysis, prediction, segments, *, vf_tolerance: float = 0
     Matching: same sign of size, re-reflections only with re-reflections;
     pairs are taken closest first (in units of their tolerance, plus
     :data:`KIND_PENALTY` when the kinds differ), each event at most once.
-    Offsets are distances along the expected run, each event's delay with
-    the loss's lag taken off.
+    Offsets are the found event's distance as placed on the user's cable or
+    run, minus the predicted one's on the expected run (each with the loss's
+    lag taken off); a found event past the end of the user's run is placed
+    on the expected run instead.
     """
     expected = expected_events(prediction, analysis, segments, vf_tolerance)
     lo, hi = analysis.start_delay_s, analysis.end_delay_s
@@ -1016,10 +1018,11 @@ def compare(analysis: Analysis, prediction, segments, *, vf_tolerance: float = 0
         used_x.add(i)
         used_f.add(j)
         x, ev = inside[i], found[j]
-        # both on the expected run, each with the loss's lag taken off
-        on_run = _placed(ev, ev.round_trip_delay_s - ev.loss_delay_s, analysis.rise_time_s,
-                         None, 0.0, segments)
-        offset_m = on_run.distance_m - x.distance_m
+        where = ev
+        if ev.distance_m is None or ev.beyond_end:  # not placed on the user's run: use ours
+            where = _placed(ev, ev.round_trip_delay_s - ev.loss_delay_s,
+                            analysis.rise_time_s, None, 0.0, segments)
+        offset_m = where.distance_m - x.distance_m
         size_differs = abs(ev.size - x.size) > max(0.3 * abs(x.size), 3 * analysis.threshold)
         pairing = Pairing(x, ev, dt, offset_m, size_differs, ev.kind != x.kind)
         (matched if abs(dt) <= x.tolerance_s else misplaced).append(pairing)
