@@ -97,15 +97,17 @@ def _read_bytes(path_text: str) -> bytes:
         raise InputError(path_text, f"cannot read it ({exc.strerror or exc})") from None
 
 
-def _run(text: str, field: str, tolerance: float | None = None):
-    """A run from the catalog (hazard cautions on stderr); ``tolerance`` overrides each VF's."""
+def _run(text: str, field: str, tolerance: float | None = None, warned=()):
+    """A run from the catalog; ``tolerance`` overrides each VF's. The hazard
+    caution goes to stderr for cables not already in ``warned``."""
     from calc.run import parse_run
     from tui.commands.common import catalog, warn_hazards
     from tui.commands.locate import parse_run_segments
 
     segments = parse_run_segments(text, tolerance) if field == "--run" else \
         parse_run(text, catalog().get, field)
-    warn_hazards([s.cable for s in segments])
+    known = {c.id for c in warned if c is not None}
+    warn_hazards([s.cable for s in segments if s.cable.id not in known])
     return segments
 
 
@@ -260,7 +262,8 @@ def compare_with_expected(args, setup, analysis):
     if not (args.expect_run and args.expect_load):
         raise InputError("--expect-run/--expect-load", "give both the expected run and the "
                          "load it should end in", "--expect-load open")
-    segments = _run(args.expect_run, "--expect-run")
+    used = [s.cable for s in setup.segments] if setup.segments else [setup.cable]
+    segments = _run(args.expect_run, "--expect-run", warned=used)
     load = parse_load(args.expect_load, "--expect-load", lookup=catalog().get)
     pieces = ev.run_segments(segments)
     round_trip = 2.0 * sum(p.delay_s for p in pieces)
