@@ -250,14 +250,15 @@ def parse_load(text: str, field: str = "--load",
     for term in terms:
         if not term:
             raise InputError(field, f"cannot read {text.strip()!r}: an empty term", LOAD_EXAMPLE)
-        kind = _component_kind(term)
+        kind = component_kind(term)
         v = parse(term, field, kind)
         values[kind] = _combine(topology, kind, values.get(kind), v)
     return Load._combination(topology, values.get("resistance"), values.get("inductance"),
                              values.get("capacitance"))
 
 
-def _component_kind(term: str) -> str:
+def component_kind(term: str) -> str:
+    """The parse kind a component term names by its unit: capacitance, inductance or resistance."""
     if _CAPACITANCE.search(term):
         return "capacitance"
     if _INDUCTANCE.search(term):
