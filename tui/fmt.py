@@ -162,7 +162,8 @@ def text_plot(x, y, width: int = 72, height: int = 11, x_label=None) -> list[str
         if np.isfinite(top[c]):
             for r in range(row(top[c]), row(bottom[c]) + 1):
                 grid[r][c] = "*"
-    labels = {0: f"{hi:+.2f}", zero: " 0", height - 1: f"{lo:+.2f}"}
+    labels = {0: f"{hi:+.2f}", height - 1: f"{lo:+.2f}"}
+    labels[zero] = "0"
     lines = [f"{labels.get(r, ''):>6} |" + "".join(grid[r]) for r in range(height)]
     if x_label is not None:
         left, mid, right = x_label(x[0]), x_label(0.5 * (x[0] + x[-1])), x_label(x[-1])
@@ -175,3 +176,10 @@ def component(value: float, unit: str, digits: int = 3) -> str:
     """An inductance (``"H"``) or capacitance (``"F"``) with an SI prefix: ``"6.1 nH"``."""
     return _scaled(value, unit, ((1.0, ""), (1e-3, "m"), (1e-6, "u"), (1e-9, "n"),
                                  (1e-12, "p"), (1e-15, "f")), digits)
+
+
+def wrapped(line: str, indent: int = 19, width: int = 79) -> list[str]:
+    """One line of text folded to ``width`` columns, later lines indented by ``indent``."""
+    import textwrap
+
+    return textwrap.wrap(line, width=width, subsequent_indent=" " * indent) or [""]

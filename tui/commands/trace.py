@@ -520,11 +520,12 @@ def describe(info: dict, notes: list[str], analysis, units: str, fraction: int) 
 
 
 def _fit(lines: list[str]) -> list[str]:
-    """Lines wrapped to the 80 columns of a field laptop's terminal."""
+    """Lines folded to the 80 columns of a field laptop's terminal."""
+    from tui.fmt import wrapped
+
     out = []
     for line in lines:
-        out += textwrap.wrap(line, _WIDTH, subsequent_indent="    ",
-                             break_on_hyphens=False) if len(line) > _WIDTH else [line]
+        out += wrapped(line, indent=4, width=_WIDTH) if len(line) > _WIDTH else [line]
     return out
 
 
