@@ -172,6 +172,12 @@ def text_plot(x, y, width: int = 72, height: int = 11, x_label=None) -> list[str
     return lines
 
 
+def component(value: float, unit: str, digits: int = 3) -> str:
+    """An inductance (``"H"``) or capacitance (``"F"``) with an SI prefix: ``"6.1 nH"``."""
+    return _scaled(value, unit, ((1.0, ""), (1e-3, "m"), (1e-6, "u"), (1e-9, "n"),
+                                 (1e-12, "p"), (1e-15, "f")), digits)
+
+
 def wrapped(line: str, indent: int = 19, width: int = 79) -> list[str]:
     """One line of text folded to ``width`` columns, later lines indented by ``indent``."""
     import textwrap
