@@ -62,6 +62,7 @@ class Kind:
     min_inclusive: bool = False
     maximum: float | None = None  # inclusive upper bound
     noun: str = "value"
+    percent: bool = False  # state the bounds in percent (NVP, tolerance)
 
 
 KINDS: dict[str, Kind] = {
@@ -76,11 +77,12 @@ KINDS: dict[str, Kind] = {
     "inductance": Kind("H", "100 nH", noun="inductance"),
     "vf": Kind("dimensionless", "0.66", bare_unit="dimensionless", maximum=1.0,
                noun="velocity factor"),
-    "nvp": Kind("dimensionless", "66 %", bare_unit="percent", maximum=1.0, noun="NVP"),
+    "nvp": Kind("dimensionless", "66 %", bare_unit="percent", maximum=1.0, noun="NVP",
+                percent=True),
     "eps_r": Kind("dimensionless", "2.25", bare_unit="dimensionless", minimum=1.0,
                   min_inclusive=True, noun="relative permittivity"),
     "tolerance": Kind("dimensionless", "3 %", bare_unit="dimensionless", minimum=0.0,
-                      min_inclusive=True, maximum=0.5, noun="tolerance"),
+                      min_inclusive=True, maximum=0.5, noun="tolerance", percent=True),
     "delay_per_length": Kind("s/m", "1.54 ns/ft", noun="delay per length"),
     "velocity": Kind("m/s", "198 m/us", noun="velocity"),
     "angle": Kind("degree", "90 deg", bare_unit="degree", noun="electrical length"),
@@ -91,7 +93,7 @@ KINDS: dict[str, Kind] = {
 
 _WAVELENGTH_WORDS = ("wavelengths", "wavelength", "lambda", "wl", "λ")
 _NUMBER = r"[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?"
-_MIXED_FRACTION = re.compile(rf"(?<![\w.])(\d+)[\s-]+(\d+)/(\d+)(?![\w.])")
+_MIXED_FRACTION = re.compile(r"(?<![\w.])(\d+)[\s-]+(\d+)/(\d+)(?![\w.])")
 _SIMPLE_FRACTION = re.compile(r"(?<![\w./])(\d+)/(\d+)(?![\d./])")
 _FEET_INCHES = re.compile(
     rf"^\s*(?:(?P<ft>{_NUMBER})\s*(?:ft|feet|foot|')\s*)?"
@@ -204,16 +206,19 @@ def _pint_reason(exc: Exception) -> str:
 
 
 def _check_range(value: float, field: str, k: Kind, raw: str) -> float:
-    unit = "" if k.si_unit == "dimensionless" else f" {k.si_unit}"
+    scale = 100.0 if k.percent else 1.0
+    unit = " %" if k.percent else ("" if k.si_unit == "dimensionless" else f" {k.si_unit}")
     if not math.isfinite(value):
         raise _fail(field, k, f"{raw!r} is not a finite {k.noun}")
-    if k.minimum is not None:
+    low = None if k.minimum is None else k.minimum * scale
+    high = None if k.maximum is None else k.maximum * scale
+    if low is not None:
         if k.min_inclusive and value < k.minimum:
-            raise _fail(field, k, f"{raw!r}: the {k.noun} must be at least {k.minimum:g}{unit}")
+            raise _fail(field, k, f"{raw!r}: the {k.noun} must be at least {low:g}{unit}")
         if not k.min_inclusive and value <= k.minimum:
-            raise _fail(field, k, f"{raw!r}: the {k.noun} must be greater than {k.minimum:g}{unit}")
-    if k.maximum is not None and value > k.maximum:
-        raise _fail(field, k, f"{raw!r}: the {k.noun} must be at most {k.maximum:g}{unit}")
+            raise _fail(field, k, f"{raw!r}: the {k.noun} must be greater than {low:g}{unit}")
+    if high is not None and value > k.maximum:
+        raise _fail(field, k, f"{raw!r}: the {k.noun} must be at most {high:g}{unit}")
     return value
 
 
@@ -224,7 +229,7 @@ def parse_complex_impedance(text: str, field: str) -> complex:
     if len(t) > MAX_INPUT_CHARS or not t:
         raise InputError(field, "an impedance is required", example)
     body = re.sub(r"\s*ohm\s*$", "", t).replace(" ", "")
-    body = re.sub(r"([+-])j(\d)", r"\g<1>\2j", body)  # 60-j40 -> 60-40j
+    body = re.sub(r"([+-])j(\d+(?:\.\d*)?(?:[eE][+-]?\d+)?)", r"\g<1>\2j", body)  # 60-j40 -> 60-40j
     if body.startswith("j"):
         body = body[1:] + "j"
     try:

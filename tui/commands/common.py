@@ -89,28 +89,38 @@ def catalog():
 
 def cable(cable_id: str, field: str = "--cable"):
     """A catalog cable by id, or an InputError naming near matches."""
-    try:
-        found = catalog().get(cable_id)
-    except KeyError as exc:
-        raise InputError(field, exc.args[0], "rg58") from None
+    found = find_cable(catalog(), cable_id, field)
     warn_hazards([found])
     return found
 
 
-def warn_hazards(cables) -> None:
-    """One caution line on stderr for any hazard-tagged cable used by a command."""
-    tags = sorted({t for c in cables if c is not None for t in c.hazards})
+def find_cable(cat, cable_id: str, field: str):
+    """``cat.get(cable_id)`` as an InputError naming ``field`` (CLI and TUI)."""
+    try:
+        return cat.get(cable_id)
+    except KeyError as exc:
+        raise InputError(field, exc.args[0], "rg58") from None
+
+
+def caution_line(tags) -> str | None:
+    """The one-line caution for hazard ``tags`` (None when there are none)."""
+    tags = sorted(set(tags))
     if not tags:
-        return
+        return None
     try:
         from tui.safety import one_line_caution
     except ImportError:
-        line = ("caution: this cable type may be energized ("
+        return ("caution: this cable type may be energized ("
                 + ", ".join(tags) + "); treat it as live until a qualified person has "
                 "proven otherwise, and follow local codes and site procedures.")
-    else:
-        line = one_line_caution(tags)
-    print(f"halftrip: {line}", file=sys.stderr)
+    return one_line_caution(tags)
+
+
+def warn_hazards(cables) -> None:
+    """One caution line on stderr for any hazard-tagged cable used by a command."""
+    line = caution_line(t for c in cables if c is not None for t in c.hazards)
+    if line:
+        print(f"halftrip: {line}", file=sys.stderr)
 
 
 VELOCITY_OPTIONS = (

@@ -1,0 +1,138 @@
+"""The input edge: every accepted form and every refusal (issue 2)."""
+
+from __future__ import annotations
+
+import math
+
+import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
+
+from calc.errors import InputError
+from calc.parse import parse, parse_complex_impedance
+
+# Unit definitions: foot = 0.3048 m and inch = 0.0254 m exactly (1959
+# international yard and pound agreement); SI prefixes (BIPM SI Brochure).
+ACCEPTED = [
+    ("245 ns", "time", 245e-9),
+    ("0.245 us", "time", 245e-9),
+    ("0.245 µs", "time", 245e-9),
+    ("0.245 μs", "time", 245e-9),
+    ("1.2e3 ps", "time", 1.2e-9),
+    ("80 ft", "length", 80 * 0.3048),
+    ("12 ft 6 in", "length", 12 * 0.3048 + 6 * 0.0254),
+    ("12' 6\"", "length", 12 * 0.3048 + 6 * 0.0254),
+    ("6 1/2 in", "length", 6.5 * 0.0254),
+    ("3 ft 2-3/8 in", "length", 3 * 0.3048 + 2.375 * 0.0254),
+    ("3/8 in", "length", 0.375 * 0.0254),
+    ("3.2 m", "length", 3.2),
+    ("850 mm", "length", 0.85),
+    ("0 mm", "length_or_zero", 0.0),
+    ("146.52 MHz", "frequency", 146.52e6),
+    ("1.2 GHz", "frequency", 1.2e9),
+    ("50 ohm", "impedance", 50.0),
+    ("50 ohms", "impedance", 50.0),
+    ("50 Ω", "impedance", 50.0),
+    ("50", "impedance", 50.0),
+    ("1 kohm", "impedance", 1000.0),
+    ("66 %", "nvp", 0.66),
+    ("66", "nvp", 0.66),
+    ("66%", "vf", 0.66),
+    ("0.66", "vf", 0.66),
+    ("2.25", "eps_r", 2.25),
+    ("3%", "tolerance", 0.03),
+    ("90 deg", "angle", 90.0),
+    ("0.25 wl", "angle", 90.0),
+    ("0.5 wavelength", "angle", 180.0),
+    ("0.75 λ", "angle", 270.0),
+    ("1.54 ns/ft", "delay_per_length", 1.54e-9 / 0.3048),
+    ("5.05 ns/m", "delay_per_length", 5.05e-9),
+    ("198 m/us", "velocity", 198e6),
+    ("10 pF", "capacitance", 10e-12),
+    ("100 nH", "inductance", 100e-9),
+    ("2.5 V", "voltage", 2.5),
+    ("-0.33", "ratio", -0.33),
+]
+
+
+@pytest.mark.parametrize("text,kind,expected", ACCEPTED)
+def test_accepted_forms(text, kind, expected):
+    assert parse(text, "field", kind) == pytest.approx(expected, rel=1e-12)
+
+
+REFUSED = [
+    ("", "time", "required"),
+    ("   ", "length", "required"),
+    ("245", "time", "needs a unit"),
+    ("80", "length", "needs a unit"),
+    ("-3 m", "length", "greater than 0"),
+    ("0 ns", "time", "greater than 0"),
+    ("0 Hz", "frequency", "greater than 0"),
+    ("nan ns", "time", "finite"),
+    ("inf m", "length", "finite"),
+    ("1e400 m", "length", "finite"),
+    ("5 kg", "length", "not a length"),
+    ("5 m", "time", "not a time"),
+    ("3 MHz", "impedance", "not a impedance"),
+    ("1.2", "vf", "at most 1"),
+    ("120 %", "nvp", "at most 100 %"),
+    ("0", "vf", "greater than 0"),
+    ("0.5", "eps_r", "at least 1"),
+    ("60 %", "tolerance", "at most 50 %"),
+    ("__import__('os')", "time", "cannot read"),
+    ("((((", "time", "cannot read"),
+    ("3 flibbets", "length", "cannot read"),
+    ("x" * 500, "time", "longer than"),
+]
+
+
+@pytest.mark.parametrize("text,kind,needle", REFUSED)
+def test_refusals_name_field_and_example(text, kind, needle):
+    with pytest.raises(InputError) as info:
+        parse(text, "--delay", kind)
+    message = str(info.value)
+    assert message.startswith("--delay: ")
+    assert needle in message
+    assert "for example" in message
+    assert "\n" not in message
+
+
+def test_complex_impedance_forms():
+    assert parse_complex_impedance("60+40j ohm", "z") == complex(60, 40)
+    assert parse_complex_impedance("60-j40", "z") == complex(60, -40)
+    assert parse_complex_impedance("75 ohm", "z") == complex(75, 0)
+    with pytest.raises(InputError):
+        parse_complex_impedance("-5+2j", "z")
+    with pytest.raises(InputError):
+        parse_complex_impedance("abc", "z")
+
+
+@settings(max_examples=300, deadline=None)
+@given(st.text(max_size=40), st.sampled_from(sorted(__import__("calc.parse").parse.KINDS)))
+def test_no_string_raises_anything_but_input_error(text, kind):
+    try:
+        value = parse(text, "field", kind)
+    except InputError as exc:
+        assert str(exc).startswith("field: ")
+    else:
+        assert math.isfinite(value)
+
+
+@settings(max_examples=200, deadline=None)
+@given(st.floats(min_value=1e-3, max_value=1e5, allow_nan=False))
+def test_metres_round_trip_through_text(length_m):
+    assert parse(f"{length_m!r} m", "length", "length") == pytest.approx(length_m, rel=1e-12)
+
+
+@settings(max_examples=200, deadline=None)
+@given(st.integers(0, 500), st.integers(0, 11), st.sampled_from([0, 1, 3, 5, 7, 15]))
+def test_feet_and_inches_round_trip(feet, inches, sixteenths):
+    from calc.tape import to_feet_inches
+
+    text = f"{feet} ft {inches}-{sixteenths}/16 in" if sixteenths else f"{feet} ft {inches} in"
+    if feet == 0 and inches == 0 and sixteenths == 0:
+        return
+    metres = parse(text, "length", "length")
+    fi = to_feet_inches(metres, 16)
+    assert (fi.feet, fi.inches) == (feet, inches)
+    assert fi.numerator * 16 // fi.denominator == sixteenths

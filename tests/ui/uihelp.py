@@ -1,0 +1,41 @@
+"""Pilot helpers shared by the UI tests (imported as a plain module)."""
+
+from __future__ import annotations
+
+
+async def wait_for(pilot, condition, timeout: float = 10.0) -> None:
+    """Pause until ``condition()`` is true (fails the test after ``timeout`` s)."""
+    import time
+
+    end = time.monotonic() + timeout
+    while not condition():
+        if time.monotonic() > end:
+            raise AssertionError(f"timed out waiting for {condition}")
+        await pilot.pause(0.02)
+    await pilot.pause()
+
+
+async def started(pilot) -> None:
+    """Wait for the start-up worker (pint, numpy, catalog) to finish."""
+    await wait_for(pilot, lambda: pilot.app.core_ready)
+
+
+async def type_into(pilot, input_id: str, text: str) -> None:
+    """Focus the input ``input_id``, clear it and type ``text`` key by key."""
+    from textual.widgets import Input
+
+    field = pilot.app.query_one(f"#{input_id}", Input)
+    field.focus()
+    await pilot.pause()
+    field.value = ""
+    await pilot.press(*[_key(ch) for ch in text])
+    await pilot.pause()
+
+
+_KEYS = {" ": "space", "/": "slash", ".": "full_stop", ",": "comma", ":": "colon",
+         "-": "minus", "+": "plus", "%": "percent_sign", "'": "apostrophe",
+         '"': "quotation_mark"}
+
+
+def _key(ch: str) -> str:
+    return _KEYS.get(ch, ch)

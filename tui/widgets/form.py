@@ -1,0 +1,145 @@
+"""A live form: fields in, one result out, recomputed on every keystroke.
+
+Subclasses compose their :class:`~tui.widgets.field.Field` widgets (and a
+:class:`~tui.widgets.result_view.ResultView` with :meth:`result_view`),
+and implement
+
+* ``compute(values) -> result``: call the core with the parsed field values
+  (a dict, field name -> value) and return its result object;
+* ``describe(result) -> str | Content``: format it with ``tui.fmt`` in
+  ``self.units`` / ``self.fraction``;
+* optionally ``hazards(result) -> tags`` for the panel's warning line.
+
+The form does the rest: it parses every field on each change, shows each
+error beside its field, keeps the last good result on screen marked out of
+date while any field is bad, maps an error the core raises to the field it
+names, waits for the start-up worker (pint, catalog) before computing, and
+redraws the last result when the unit system changes.
+"""
+
+from __future__ import annotations
+
+from textual.containers import Vertical
+from textual.widgets import Input
+
+from calc.errors import InputError
+from tui.widgets.field import Field, error_beside
+from tui.widgets.result_view import ResultView
+
+WAITING_TEXT = "loading unit tables and the cable catalog..."
+
+
+class LiveForm(Vertical):
+    """Base of every live calculation form (see the module docstring)."""
+
+    DEFAULT_CSS = """
+    LiveForm { height: auto; }
+    """
+
+    def __init__(self, *, id: str | None = None, classes: str | None = None) -> None:
+        super().__init__(id=id, classes=classes)
+        self.last_result = None
+        self.last_error: InputError | None = None
+
+    # -- for subclasses ---------------------------------------------------
+    def compute(self, values: dict[str, object]):
+        raise NotImplementedError
+
+    def describe(self, result):
+        raise NotImplementedError
+
+    def hazards(self, result) -> tuple[str, ...]:
+        return ()
+
+    # -- state the subclasses read -----------------------------------------
+    @property
+    def units(self) -> str:
+        return self.app.unit_system[0]
+
+    @property
+    def fraction(self) -> int:
+        return self.app.unit_system[1]
+
+    @property
+    def catalog(self):
+        return self.app.catalog
+
+    def fields(self) -> list[Field]:
+        return list(self.query(Field))
+
+    def field(self, name: str) -> Field:
+        return next(f for f in self.query(Field) if f.field_name == name)
+
+    def result_view(self) -> ResultView:
+        return self.query_one(ResultView)
+
+    # -- the live loop -----------------------------------------------------
+    def on_mount(self) -> None:
+        self.watch(self.app, "core_ready", self._core_ready_changed)
+        self.watch(self.app, "unit_system", self._units_changed, init=False)
+
+    def _core_ready_changed(self, ready: bool) -> None:
+        if ready:
+            self.recompute()
+        else:
+            self.result_view().waiting(WAITING_TEXT)
+
+    def _units_changed(self, _units) -> None:
+        if self.last_result is not None:
+            view = self.result_view()
+            stale = view.is_stale
+            view.update(self.describe(self.last_result))
+            if stale:
+                view.mark_stale(error_beside(self.last_error) if self.last_error else None)
+
+    def on_input_changed(self, event: Input.Changed) -> None:
+        event.stop()
+        self.recompute()
+
+    def recompute(self) -> None:
+        """Parse every field, call the core, show the result or the errors."""
+        if not self.app.core_ready:
+            return
+        values: dict[str, object] = {}
+        first_error: InputError | None = None
+        fields = self.fields()
+        for f in fields:
+            try:
+                values[f.field_name] = f.read()
+                f.show_error(None)
+            except InputError as exc:
+                f.show_error(exc)
+                first_error = first_error or exc
+        view = self.result_view()
+        if first_error is None:
+            try:
+                result = self.compute(values)
+            except InputError as exc:
+                first_error = exc
+                owner = self._owner(fields, exc)
+                if owner is not None:
+                    owner.show_error(exc)
+        if first_error is not None:
+            self.last_error = first_error
+            if self.last_result is None:
+                view.waiting("nothing yet: " + str(first_error))
+            else:
+                owned = self._owner(fields, first_error) is not None
+                view.mark_stale(None if owned else str(first_error))
+            return
+        self.last_error = None
+        self.last_result = result
+        view.show(self.describe(result))
+        self._set_hazards(self.hazards(result))
+
+    def _owner(self, fields: list[Field], exc: InputError) -> Field | None:
+        return next((f for f in fields if exc.field in (f.label, f.field_name)), None)
+
+    def _set_hazards(self, tags) -> None:
+        from tui.widgets.warning_line import WarningLine
+
+        for node in self.ancestors_with_self:
+            lines = node.query_children(WarningLine) if hasattr(node, "query_children") else []
+            if lines:
+                lines.first().set_hazards(tags)
+                return

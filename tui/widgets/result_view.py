@@ -1,0 +1,46 @@
+"""Where a live result is shown: fresh, waiting, or out of date (stale)."""
+
+from __future__ import annotations
+
+from textual.widgets import Static
+
+FRESH_TITLE = "Result"
+STALE_TITLE = "Out of date: last good result (fix the field marked with an error)"
+WAITING_TITLE = "Result: waiting"
+
+
+class ResultView(Static):
+    """A bordered block of result text. When the input goes bad the last good
+    text stays, dimmed, under a title that says it is out of date; this never
+    relies on colour alone (the border and the title change too)."""
+
+    def on_mount(self) -> None:
+        self.border_title = WAITING_TITLE
+
+    def show(self, content) -> None:
+        """A fresh result."""
+        self.remove_class("-stale", "-waiting")
+        self.border_title = FRESH_TITLE
+        self.update(content)
+
+    def mark_stale(self, reason: str | None = None) -> None:
+        """Keep what is shown, marked out of date; ``reason`` for a form-level error."""
+        if not self.has_class("-waiting"):
+            self.add_class("-stale")
+            self.border_title = STALE_TITLE
+        self.border_subtitle = reason or ""
+
+    def waiting(self, text: str) -> None:
+        """Nothing to show yet (``text`` says what is missing)."""
+        self.remove_class("-stale")
+        self.add_class("-waiting")
+        self.border_title = WAITING_TITLE
+        self.border_subtitle = ""
+        self.update(text)
+
+    @property
+    def is_stale(self) -> bool:
+        return self.has_class("-stale")
+
+    def clear_reason(self) -> None:
+        self.border_subtitle = ""
