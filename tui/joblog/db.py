@@ -485,11 +485,15 @@ class JobLog:
         wanted = [normalise_tag(t) for t in tags]
         current = set(self.entry(entry_id).tags)
         if remove:
-            new = current - set(wanted)
-        else:
-            if any(t in STATUS_TAGS for t in wanted):
-                current -= set(STATUS_TAGS)
-            new = set(_exclusive_status(sorted(current) + wanted))
+            return self.set_tags(entry_id, sorted(current - set(wanted)))
+        if any(t in STATUS_TAGS for t in wanted):
+            current -= set(STATUS_TAGS)
+        return self.set_tags(entry_id, sorted(current) + wanted)
+
+    def set_tags(self, entry_id: int, tags: Iterable[str]) -> Entry:
+        """Make the entry's tags exactly ``tags`` (of several status tags the last one wins)."""
+        new = _exclusive_status([normalise_tag(t) for t in tags])
+        self.entry(entry_id)
         with self._transaction() as con:
             con.execute("DELETE FROM entry_tags WHERE entry_id = ?", (entry_id,))
             con.executemany("INSERT INTO entry_tags (entry_id, tag) VALUES (?, ?)",

@@ -16,7 +16,7 @@ import numpy as np
 
 from tui import fmt
 
-WIDTH = 64  # plot columns; with the level labels the picture is 73 characters wide
+WIDTH = 60  # plot columns; with the level labels the picture is 69 characters wide
 HEIGHT = 13  # plot rows
 MARKED_LISTS = ("events", "arrivals")
 
