@@ -144,3 +144,18 @@ def test_check_reports_the_file(capsys):
     info = json.loads(out)
     assert code == 0 and info["integrity"] == "ok" and info["journal_mode"] == "wal"
     assert info["path"] == os.environ["HALFTRIP_DB"] and info["jobs"] == 1
+
+
+def test_locate_save_keeps_what_was_typed_and_printed(capsys):
+    _run(capsys, "log", "new", "Harbour Road substation")
+    code, out, err = _run(capsys, "locate", "245 ns", "--cable", "rg58", "--json", "--save",
+                          "--label", "feeder 2")
+    assert code == 0, err
+    printed = json.loads(out)
+    with open_log(os.environ["HALFTRIP_DB"]) as log:
+        (entry,) = log.entries(1)
+    assert entry.kind == "locate" and entry.cable == "rg58"
+    assert entry.inputs == {"delay": "245 ns", "cable": "rg58"}
+    assert entry.result == printed
+    # d = VF c0 t / 2 with c0 = 299 792 458 m/s (SI definition), VF 0.66 for the RG-58 family
+    assert entry.result["distance_m"] == pytest.approx(0.66 * 299_792_458 * 245e-9 / 2, rel=1e-9)

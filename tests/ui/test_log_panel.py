@@ -231,3 +231,30 @@ async def test_a_broken_log_file_is_shown_and_left_alone():
         await pilot.pause()
         assert any("left untouched" in n for n in app.notices)
     assert hashlib.sha256(open(path, "rb").read()).hexdigest() == before
+
+
+async def test_new_job_becomes_the_open_job_and_tags_dialog_sets_tags():
+    with open_log(os.environ["HALFTRIP_DB"]) as log:
+        job = log.new_job("Harbour Road substation")
+        log.add_entry(job.id, "locate", {}, {"distance_m": 1.0}, label="feeder 2", tags=["pass"])
+    app = make_app(start="log")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await started(pilot)
+        table = await _log_table(pilot)
+        await pilot.press("a")
+        await _answer(pilot, "recheck wet-connector")
+        await wait_for(pilot, lambda: _entries()[0].tags == ("recheck", "wet-connector"))
+
+        await pilot.press("n")
+        await _answer(pilot, "Old mill data room", "key from the caretaker")
+        await wait_for(pilot, lambda: table.border_title.startswith("0 of 0"))
+        with open_log(os.environ["HALFTRIP_DB"]) as log:
+            newest = log.newest_job()
+        assert (newest.site, newest.notes) == ("Old mill data room", "key from the caretaker")
+
+        await pilot.press("f2")  # a save now goes to the new job
+        await pilot.pause()
+        await pilot.press("ctrl+s")
+        await _answer(pilot, "reel 7", "")
+        await wait_for(pilot, lambda: len(_entries()) == 2)
+    assert [e.job_id for e in _entries()] == [job.id, newest.id]

@@ -19,11 +19,12 @@ NOT_INPUTS = frozenset({"func", "json", "units", "fraction", "save", "job", "lab
 
 
 def inputs_from_args(args) -> dict:
-    """The command's inputs as typed, from the parsed options (None values dropped)."""
+    """The command's inputs as typed, from the parsed options: options not given (None, or
+    False for a flag) are left out."""
     from tui.fmt import json_ready
 
     return {k: json_ready(v) for k, v in vars(args).items()
-            if k not in NOT_INPUTS and v is not None}
+            if k not in NOT_INPUTS and v is not None and v is not False}
 
 
 def command_kind(args) -> str:

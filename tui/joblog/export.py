@@ -123,6 +123,13 @@ def _header() -> dict:
             "exported_at": datetime.now().astimezone().isoformat(timespec="seconds")}
 
 
+def _when(stamp: str) -> str:
+    """``2026-12-01 22:05 +01:00`` from an ISO time stamp."""
+    when = datetime.fromisoformat(stamp)
+    return when.strftime("%Y-%m-%d %H:%M ") + when.strftime("%z")[:3] + ":" + \
+        when.strftime("%z")[3:]
+
+
 # -- JSON ---------------------------------------------------------------------------------
 
 
@@ -159,6 +166,8 @@ def _raw(value) -> str:
 def _pairs(values: dict) -> str:
     out = []
     for key, value in values.items():
+        if value is None:
+            continue
         if _is_numbers(value) and len(value) > ARRAY_SHOWN:
             out.append(f"{key}=[{len(value)} values; in the JSON report]")
         else:
@@ -227,9 +236,10 @@ def entry_markdown(entry: Entry, units: str = "metric", fraction: int = 16,
     if entry.inputs:
         lines += ["Inputs, as typed:", ""]
         lines += md_table(["input", "value"],
-                          [[k, _raw(v)] for k, v in entry.inputs.items()])
+                          [[fmt.key_label(k), _raw(v)] for k, v in entry.inputs.items()])
         lines.append("")
     values, tables = split_result(entry.result)
+    values = {k: v for k, v in values.items() if v is not None}  # "not applicable" says nothing
     if values:
         lines += ["Result:", ""]
         lines += md_table(["quantity", "value"],
@@ -261,7 +271,7 @@ def job_markdown(job: Job, entries: list[Entry], units: str = "metric",
                  fraction: int = 16) -> str:
     header = _header()
     lines = [f"# Job {job.id}: {md_text(job.site)}", "",
-             f"Date {job.date} · {len(entries)} entries · exported {header['exported_at']} "
+             f"Date {job.date} · {len(entries)} entries · exported {_when(header['exported_at'])} "
              f"by halftrip (lengths {'in feet and inches' if units == 'imperial' else 'in metres'})",
              ""]
     if job.notes:

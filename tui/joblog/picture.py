@@ -22,12 +22,14 @@ MARKED_LISTS = ("events", "arrivals")
 
 
 def _numbers(values) -> np.ndarray | None:
+    """A list of numbers (None read as a gap) as a float array, else None."""
     if not isinstance(values, list) or len(values) < 2:
         return None
-    if not all(v is None or (isinstance(v, int | float) and not isinstance(v, bool))
-               for v in values):
+    try:
+        array = np.array(values, dtype=float)  # None -> nan; text or nested lists refused
+    except (TypeError, ValueError):
         return None
-    return np.array([math.nan if v is None else v for v in values], dtype=float)
+    return array if array.ndim == 1 else None
 
 
 def find_trace(result: dict) -> tuple[str, np.ndarray, np.ndarray, dict] | None:

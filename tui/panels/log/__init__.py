@@ -195,64 +195,57 @@ class Panel(Vertical):
             self.app.notify("Choose an entry first.", title="Job log", severity="warning")
         return entry
 
+    def _ask(self, title: str, intro: str, asks, then, ok: str = "OK") -> None:
+        """Show a :class:`FieldsDialog`; ``then(values)`` runs if it is accepted."""
+        from tui.panels.log.fields_dialog import FieldsDialog
+
+        self.app.push_screen(FieldsDialog(title, intro, asks, ok=ok),
+                             lambda values: values is not None and then(values))
+
+    @staticmethod
+    def _tags_now(entry) -> str:
+        return f"Entry {entry.id}: {' '.join(entry.tags) or 'no tags'}"
+
     def action_status(self, tag: str) -> None:
         entry = self._need_entry()
         if entry is None:
             return
         remove = tag in entry.tags  # pressing it again takes it off
-        self._change(lambda log: log.tag(entry.id, [tag], remove=remove),
-                     lambda e: f"Entry {e.id}: {' '.join(e.tags) or 'no tags'}")
+        self._change(lambda log: log.tag(entry.id, [tag], remove=remove), self._tags_now)
 
     def action_tags(self) -> None:
-        from tui.panels.log.fields_dialog import Ask, FieldsDialog
+        from tui.panels.log.fields_dialog import Ask
 
         entry = self._need_entry()
-        if entry is None:
-            return
-
-        def answered(values) -> None:
-            if values is not None:
-                words = values["tags-words"].split()
-                self._change(lambda log: log.set_tags(entry.id, words),
-                             lambda e: f"Entry {e.id}: {' '.join(e.tags) or 'no tags'}")
-
-        self.app.push_screen(FieldsDialog(
-            f"Tags of entry {entry.id}", "Words, a space between: pass, fail, recheck (one of "
-            "them) and any of your own.",
-            [Ask("tags-words", "Tags", " ".join(entry.tags), "e.g. fail wet-connector")]),
-            answered)
+        if entry is not None:
+            self._ask(f"Tags of entry {entry.id}",
+                      "Words, a space between: pass, fail or recheck, and any of your own.",
+                      [Ask("tags-words", "Tags", " ".join(entry.tags), "e.g. fail wet-connector")],
+                      lambda v: self._change(lambda log: log.set_tags(entry.id, v["tags-words"]
+                                                                      .split()), self._tags_now))
 
     def action_edit(self) -> None:
-        from tui.panels.log.fields_dialog import Ask, FieldsDialog
+        from tui.panels.log.fields_dialog import Ask
 
         entry = self._need_entry()
-        if entry is None:
-            return
-
-        def answered(values) -> None:
-            if values is not None:
-                self._change(lambda log: log.edit_entry(entry.id, label=values["edit-label"],
-                                                        note=values["edit-note"]),
-                             f"Entry {entry.id} changed.")
-
-        self.app.push_screen(FieldsDialog(
-            f"Entry {entry.id}: {entry.kind}", "The inputs and the result stay as saved.",
-            [Ask("edit-label", "Label", entry.label, "e.g. feeder 2"),
-             Ask("edit-note", "Note", entry.note)]), answered)
+        if entry is not None:
+            self._ask(f"Entry {entry.id}: {entry.kind}", "The inputs and the result stay as saved.",
+                      [Ask("edit-label", "Label", entry.label, "e.g. feeder 2"),
+                       Ask("edit-note", "Note", entry.note)],
+                      lambda v: self._change(lambda log: log.edit_entry(
+                          entry.id, label=v["edit-label"], note=v["edit-note"]),
+                          f"Entry {entry.id} changed."))
 
     def action_new_job(self) -> None:
-        from tui.panels.log.fields_dialog import Ask, FieldsDialog, required_text
+        from tui.panels.log.fields_dialog import Ask, required_text
 
-        def answered(values) -> None:
-            if values is not None:
-                self._change(lambda _log: self.session.new_job(values["job-site"],
-                                                               values["job-notes"]),
-                             lambda j: f"Job {j.id} started: {j.site}. Saves now go to it.")
-
-        self.app.push_screen(FieldsDialog(
-            "New job", "Today's date is used; results saved with Ctrl+S go to the new job.",
-            [Ask("job-site", "Site", "", "e.g. Harbour Road substation", required_text),
-             Ask("job-notes", "Notes", "", "access, contacts, weather")], ok="Start"), answered)
+        self._ask("New job", "Today's date is used; results saved with Ctrl+S go to the new job.",
+                  [Ask("job-site", "Site", "", "e.g. Harbour Road substation", required_text),
+                   Ask("job-notes", "Notes", "", "access, contacts, weather")],
+                  lambda v: self._change(
+                      lambda _log: self.session.new_job(v["job-site"], v["job-notes"]),
+                      lambda j: f"Job {j.id} started: {j.site}. Saves now go to it."),
+                  ok="Start")
 
     def action_delete(self) -> None:
         from tui.panels.log.confirm import ConfirmDialog
@@ -315,7 +308,7 @@ class Panel(Vertical):
 
     def action_export(self) -> None:
         from tui.joblog.export import FORMATS
-        from tui.panels.log.fields_dialog import Ask, FieldsDialog
+        from tui.panels.log.fields_dialog import Ask
 
         job = self.session.open_job()
         if job is None:
@@ -330,17 +323,13 @@ class Panel(Vertical):
                 raise InputError(label, "use md, csv or json", "md")
             return t
 
-        def answered(values) -> None:
-            if values is not None:
-                self._export(job, values["export-format"], values["export-file"])
-
-        self.app.push_screen(FieldsDialog(
-            f"Export job {job.id}: {job.site}",
-            "md: a report to hand in · csv: for a spreadsheet · json: for programs. The file "
-            "is written whole or not at all.",
-            [Ask("export-format", "Format", "md", "md, csv or json", form),
-             Ask("export-file", "File", str(default_report_path(job)), "")], ok="Export"),
-            answered)
+        self._ask(f"Export job {job.id}: {job.site}",
+                  "md: a report to hand in · csv: for a spreadsheet · json: for programs. The "
+                  "file is written whole or not at all.",
+                  [Ask("export-format", "Format", "md", "md, csv or json", form),
+                   Ask("export-file", "File", str(default_report_path(job)), "")],
+                  lambda v: self._export(job, v["export-format"], v["export-file"]),
+                  ok="Export")
 
     def _export(self, job, form: str, file_text: str) -> None:
         units, fraction = self.app.unit_system
