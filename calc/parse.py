@@ -241,3 +241,30 @@ def parse_complex_impedance(text: str, field: str) -> complex:
     if z.real < 0:
         raise InputError(field, "a passive load has a real part of zero or more", example)
     return z
+
+
+_BAND = re.compile(
+    rf"^\s*(?P<lo>{_NUMBER})\s*(?P<lo_unit>[A-Za-z]*)\s*(?:-|\u2013|\u2014|\.\.|to)\s*"
+    rf"(?P<hi>{_NUMBER})\s*(?P<hi_unit>[A-Za-z]*)\s*$"
+)
+
+
+def parse_band(text: str, field: str) -> tuple[float, float]:
+    """``"144-148 MHz"``, ``"144 MHz - 148 MHz"``, ``"430 to 440 MHz"`` -> (low, high) in Hz.
+
+    A unit given only after the upper edge applies to both edges.
+    """
+    example = "144-148 MHz"
+    t = text.strip() if isinstance(text, str) else ""
+    m = _BAND.match(t) if len(t) <= MAX_INPUT_CHARS else None
+    if not m or not (m.group("lo_unit") or m.group("hi_unit")):
+        raise InputError(field, f"cannot read {t!r} as a band LOW-HIGH UNIT", example)
+    unit = m.group("hi_unit") or m.group("lo_unit")
+    try:
+        lo = parse(f"{m.group('lo')} {m.group('lo_unit') or unit}", field, "frequency")
+        hi = parse(f"{m.group('hi')} {m.group('hi_unit') or unit}", field, "frequency")
+    except InputError as exc:
+        raise InputError(field, exc.problem, example) from None
+    if not lo < hi:
+        raise InputError(field, f"{t!r}: the low edge must be below the high edge", example)
+    return lo, hi

@@ -23,6 +23,8 @@ def length(length_m: float, units: str = "metric", fraction: int = 16) -> str:
         frac = f"-{fi.numerator}/{fi.denominator}" if fi.numerator else ""
         if fi.feet:
             return f"{sign}{fi.feet} ft {fi.inches}{frac} in"
+        if not fi.inches and frac:  # under an inch: "9/16 in", not "0-9/16 in"
+            return f"{sign}{fi.numerator}/{fi.denominator} in"
         return f"{sign}{fi.inches}{frac} in"
     a = abs(length_m)
     if a < 1.0:
@@ -150,3 +152,39 @@ def by_key(key: str, value, units: str = "metric", fraction: int = 16) -> str:
         return shown(value)
     text = f"{value:.6g}" if math.isfinite(value) else "infinite"
     return f"{text} {unit}" if unit else text
+
+
+def other_units(units: str) -> str:
+    """The unit system that is not ``units``."""
+    return "imperial" if units == "metric" else "metric"
+
+
+def length_both(length_m: float, units: str = "metric", fraction: int = 16) -> str:
+    """A length in both systems, the preferred one first: ``"339 mm (1 ft 1-5/16 in)"``."""
+    return f"{length(length_m, units, fraction)} ({length(length_m, other_units(units), fraction)})"
+
+
+def degrees(deg: float, digits: int = 2) -> str:
+    """An electrical length: ``"90.00 deg (0.2500 wl)"``."""
+    if deg is None or not math.isfinite(deg):
+        return "-"
+    return f"{deg:.{digits}f} deg ({deg / 360.0:.4f} wl)"
+
+
+def table(rows: list[tuple[str, ...]], right: tuple[int, ...] = (),
+          max_width: int = 80) -> list[str]:
+    """Rows of text as aligned columns (``right``: right-aligned columns), two spaces
+    apart, or one where two would pass ``max_width``."""
+    widths = [max(len(r[i]) for r in rows) for i in range(len(rows[0]))]
+    gap = 2 if sum(widths) + 2 * (len(widths) - 1) <= max_width else 1
+    out = []
+    for r in rows:
+        cells = [v.rjust(w) if i in right else v.ljust(w)
+                 for i, (v, w) in enumerate(zip(r, widths, strict=True))]
+        out.append((" " * gap).join(cells).rstrip())
+    return out
+
+
+def vswr(x: float) -> str:
+    """A VSWR to two decimals (``"1.13"``), ``"infinite"`` for a total reflection."""
+    return "infinite" if x is None or not math.isfinite(x) else f"{x:.2f}"

@@ -87,10 +87,15 @@ def catalog():
     return cat
 
 
-def cable(cable_id: str, field: str = "--cable"):
-    """A catalog cable by id, or an InputError naming near matches."""
+def cable(cable_id: str, field: str = "--cable", warn: bool = True):
+    """A catalog cable by id, or an InputError naming near matches.
+
+    ``warn=False`` leaves the hazard caution to the caller (``warn_hazards``),
+    for commands that print it only once their input has all been accepted.
+    """
     found = find_cable(catalog(), cable_id, field)
-    warn_hazards([found])
+    if warn:
+        warn_hazards([found])
     return found
 
 
@@ -155,8 +160,12 @@ class ResolvedVelocity:
     source: str  # what the velocity came from, for people
 
 
-def resolve_velocity(args, tolerance_text: str | None = None) -> ResolvedVelocity | None:
-    """The velocity the user asked for, or None if no velocity option was given."""
+def resolve_velocity(args, tolerance_text: str | None = None,
+                     warn: bool = True) -> ResolvedVelocity | None:
+    """The velocity the user asked for, or None if no velocity option was given.
+
+    ``warn`` is passed to :func:`cable`.
+    """
     from calc import velocity as vel
     from calc.parse import parse
 
@@ -168,7 +177,7 @@ def resolve_velocity(args, tolerance_text: str | None = None) -> ResolvedVelocit
         if text is None:
             continue
         if flag == "--cable":
-            c = cable(text)
+            c = cable(text, warn=warn)
             return ResolvedVelocity(vel.from_vf(c.vf), c,
                                     c.vf_tolerance if tolerance is None else tolerance,
                                     f"catalog cable {c.id} (VF {c.vf:g})")
@@ -176,3 +185,34 @@ def resolve_velocity(args, tolerance_text: str | None = None) -> ResolvedVelocit
         v = vel.from_vf(vel.vf_from(conv, value), flag)
         return ResolvedVelocity(v, None, tolerance or 0.0, f"{flag} {text}")
     return None
+
+
+def add_electrical_length_options(parser: argparse.ArgumentParser):
+    """``--degrees D | --wavelengths W`` (one required); returns the group so a
+    command can add another way to give the length."""
+    group = parser.add_mutually_exclusive_group(required=True)
+    group.add_argument("--degrees", metavar="D", help="electrical length in degrees, e.g. 90")
+    group.add_argument("--wavelengths", metavar="W",
+                       help="electrical length in wavelengths, e.g. 0.25")
+    return group
+
+
+def electrical_length_deg(args) -> float | None:
+    """The electrical length from ``--degrees``/``--wavelengths`` in degrees, or None."""
+    from calc.parse import parse
+
+    if getattr(args, "degrees", None) is not None:
+        return parse(args.degrees, "--degrees", "angle")
+    text = getattr(args, "wavelengths", None)
+    if text is None:
+        return None
+    try:
+        float(text)
+    except ValueError:  # has a unit of its own ("0.25 wl", "90 deg")
+        pass
+    else:
+        text = f"{text} wl"
+    try:
+        return parse(text, "--wavelengths", "angle")
+    except InputError as exc:
+        raise InputError("--wavelengths", exc.problem, "0.25") from None

@@ -1,29 +1,43 @@
-"""The caution line a calculation panel shows when a cable in use may be energized."""
+"""The caution line a panel shows when its line may be energized."""
 
 from __future__ import annotations
 
+from textual.reactive import reactive
 from textual.widgets import Static
 
 
 class WarningLine(Static):
-    """One line naming the hazards of the cables in use; hidden when there are none.
+    """One line of caution; hidden when there is nothing to warn of.
 
-    Panels call :meth:`set_hazards` with catalog hazard tags. The wording comes
-    from ``tui.commands.common.caution_line`` (which defers to the safety
-    module when it is present), the same line the CLI prints.
+    It shows when the cables in use carry hazard tags (panels call
+    :meth:`set_hazards` with catalog tags) or when the user marks the line as
+    possibly live (the app's ``!`` key toggles :attr:`possibly_live` on the
+    current panel's warning line). The wording is :func:`tui.safety.warning_line`.
     """
+
+    #: Hazard tags of the cables in use, in a stable order.
+    tags: reactive[tuple[str, ...]] = reactive((), init=False)
+    #: The user has marked this panel's line as possibly live.
+    possibly_live: reactive[bool] = reactive(False, init=False)
 
     def __init__(self) -> None:
         super().__init__("", id="warning-line", markup=False)
-        self.tags: tuple[str, ...] = ()
 
     def on_mount(self) -> None:
-        self.display = False
+        self._show()
 
     def set_hazards(self, tags) -> None:
-        from tui.commands.common import caution_line
-
         self.tags = tuple(sorted(set(tags)))
-        line = caution_line(self.tags)
+
+    def watch_tags(self) -> None:
+        self._show()
+
+    def watch_possibly_live(self) -> None:
+        self._show()
+
+    def _show(self) -> None:
+        from tui.safety import warning_line
+
+        line = warning_line(self.tags, self.possibly_live)
         self.display = bool(line)
-        self.update(line or "")
+        self.update(line)
