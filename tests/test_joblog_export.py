@@ -101,7 +101,7 @@ def test_markdown_shows_values_in_the_users_units(capsys, db, job):
     # 245 ns in a VF 0.66 cable: 0.66 c0 245 ns / 2 = 24.238 m (c0: SI definition)
     assert f"| distance | {0.66 * C0 * 245e-9 / 2:.3f} m |" in metric
     # 75 ohm on 50 ohm: |Gamma| = 0.2, return loss 13.98 dB, VSWR 1.5 (Pozar, ch. 2 relations)
-    assert "| return loss | 13.98 dB |" in metric and "| VSWR | 1.5 |" in metric
+    assert "| return loss | 13.98 dB |" in metric and "| VSWR | 1.50 |" in metric
     _, imperial, _ = _run(capsys, "log", "export", "--db", db, "--format", "md",
                           "--units", "imperial")
     # 24.2375 m / 0.3048 m per foot (exact, 1959 agreement) = 79.519 ft = 79 ft 6.23 in,

@@ -133,12 +133,14 @@ def by_key(key: str, value, units: str = "metric", fraction: int = 16) -> str:
         value = complex(value["real"] or 0.0, value["imag"] or 0.0)
     if not isinstance(value, int | float | complex):
         return str(value)
-    _name, unit = key_unit(key)
+    name, unit = key_unit(key)
     if isinstance(value, complex):
         return impedance(value) if unit == "ohm" else f"{value.real:.6g} {value.imag:+.6g}j"
     if isinstance(value, int) and not unit:
         return str(value)
     value = float(value)
+    if name.split("_")[0] == "vswr" and not unit:
+        return vswr(value)
     shown = {
         "m": lambda v: length(v, units, fraction),
         "s": time,

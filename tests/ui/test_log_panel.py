@@ -258,3 +258,14 @@ async def test_new_job_becomes_the_open_job_and_tags_dialog_sets_tags():
         await _answer(pilot, "reel 7", "")
         await wait_for(pilot, lambda: len(_entries()) == 2)
     assert [e.job_id for e in _entries()] == [job.id, newest.id]
+
+
+async def test_demo_shows_its_own_job_and_leaves_the_users_log_alone():
+    from tui.app import create_app
+
+    app = create_app(demo=True, start_panel="log")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await started(pilot)
+        table = app.query_one(EntryTable)
+        await wait_for(pilot, lambda: table.row_count >= 5)
+    assert not os.path.exists(os.environ["HALFTRIP_DB"])

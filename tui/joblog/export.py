@@ -33,9 +33,9 @@ ARRAY_SHOWN = 8  # number lists longer than this are summarised in CSV and Markd
 # Result values that say most about an entry, in the order a summary shows them.
 HEADLINE_KEYS = (
     "distance_m", "distance_low_m", "distance_high_m", "distance_from_a_m", "distance_from_b_m",
-    "offset_in_segment_m", "implied_vf", "vf", "vf_low", "vf_high", "keep_length_m", "cut_off_m",
-    "cut_length_m", "physical_length_m", "ideal_impedance_ohm", "impedance_ohm", "kind",
-    "return_loss_db", "vswr", "vswr_center", "vswr_worst",
+    "offset_in_segment_m", "keep_length_m", "cut_off_m", "cut_length_m", "physical_length_m",
+    "implied_vf", "vf", "vf_low", "vf_high", "ideal_impedance_ohm", "vswr_center", "vswr_worst",
+    "return_loss_db", "vswr", "impedance_ohm", "kind",
 )
 HEADLINE_SIZE = 3
 

@@ -26,9 +26,11 @@ class LogSession:
     """
 
     def __init__(self, path: Path | None = None,
-                 notice: Callable[[str], None] | None = None) -> None:
+                 notice: Callable[[str], None] | None = None,
+                 make: Callable[[Path], None] | None = None) -> None:
         self.path = path
         self._notice = notice or (lambda _text: None)
+        self._make = make  # builds the file when it does not exist yet (the demo)
         self._log: JobLog | None = None
         self.problem: str | None = None
         self.job_id: int | None = None
@@ -38,6 +40,8 @@ class LogSession:
     def log(self) -> JobLog:
         if self._log is None:
             try:
+                if self._make is not None and self.path is not None and not self.path.exists():
+                    self._make(self.path)
                 self._log = open_log(self.path, notice=self._notice)
             except JobLogError as exc:
                 self.problem = str(exc)
@@ -96,8 +100,9 @@ class LogSession:
 def session_for(app) -> LogSession:
     """The app's session (made on first use; ``app.notify`` shows its notices).
 
-    The file is ``app.job_db_path`` when the app has one, else the usual place
-    (:func:`tui.paths.job_db_path`).
+    The file is the usual one (:func:`tui.paths.job_db_path`), except for the
+    demo (``app.demo``): an invented job in a temporary file, removed when
+    the program ends, so the demo never writes into the user's own log.
     """
     session = _SESSIONS.get(app)
     if session is None:
@@ -106,6 +111,16 @@ def session_for(app) -> LogSession:
             if notify is not None:
                 notify(text, title="Job log", timeout=6)
 
-        session = LogSession(getattr(app, "job_db_path", None), notice)
+        if getattr(app, "demo", False):
+            import tempfile
+
+            from tui.joblog.demo import build_demo_log
+
+            folder = tempfile.TemporaryDirectory(prefix="halftrip-demo-")
+            session = LogSession(Path(folder.name) / "demo-jobs.sqlite3", notice,
+                                 make=build_demo_log)
+            session.demo_folder = folder  # kept alive with the session, removed at exit
+        else:
+            session = LogSession(None, notice)
         _SESSIONS[app] = session
     return session

@@ -83,10 +83,13 @@ class Panel(Vertical):
     def on_mount(self) -> None:
         self.session.listen(lambda: self.post_message(self.Changed()))
         self.watch(self.app, "unit_system", lambda _u: self.refill(), init=False)
-        self.refill()
+        # The file is first read once the start-up worker is done: no disk work before the
+        # first frame (and the demo's job is built with the loaded core).
+        self.watch(self.app, "core_ready", lambda ready: ready and self.refill())
 
     def on_show(self) -> None:
-        self.refill()  # the CLI may have saved meanwhile
+        if self.app.core_ready:
+            self.refill()  # the CLI may have saved meanwhile
 
     def on_panel_changed(self, _message: Changed) -> None:
         self.refill()
@@ -95,6 +98,8 @@ class Panel(Vertical):
 
     def refill(self) -> None:
         """Read jobs and the open job's entries again and show them."""
+        if not self.app.core_ready:
+            return
         from tui.joblog.db import JobLogError
 
         problem = self.query_one("#log-problem", Static)

@@ -122,9 +122,13 @@ def record_of(panel) -> LogRecord:
 
 def save_current(app) -> None:
     """Ctrl+S: ask for a label and note, then save the shown panel's result to the open job."""
+    from textual.screen import ModalScreen
+
     from tui.joblog.db import JobLogError
     from tui.joblog.session import session_for
 
+    if isinstance(app.screen, ModalScreen):  # a dialog is open: it has the keys
+        return
     panel = app.query_one(f"#{app.current_panel}") if app.current_panel else None
     try:
         if panel is None:
