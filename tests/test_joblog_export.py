@@ -7,14 +7,17 @@ import csv
 import io
 import json
 import math
+import re
 
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 from joblog_samples import C0, SAMPLES
 
 from tui.cli import main
 from tui.fmt import key_label
 from tui.joblog import open_log
-from tui.joblog.export import FORMULA_STARTS, job_csv, md_cell, neutralise
+from tui.joblog.export import FORMULA_STARTS, job_csv, job_markdown, md_cell, neutralise
 from tui.joblog.picture import WIDTH, trace_picture
 
 
@@ -210,3 +213,39 @@ def test_picture_keeps_a_spike_narrower_than_a_column():
 def test_no_picture_without_a_trace():
     assert trace_picture(SAMPLES["locate"][1]) is None
     assert trace_picture({"level": [0.0, 1.0], "distance_m": [0.0]}) is None
+
+
+# -- any text a person types --------------------------------------------------------------------
+
+TEXT = st.text(st.characters(blacklist_categories=("Cs",), blacklist_characters="\x00"),
+               max_size=40)
+
+
+@settings(max_examples=200, deadline=None)
+@given(label=TEXT, note=TEXT, typed=TEXT)
+def test_any_text_round_trips_and_never_starts_a_formula(tmp_path_factory, label, note, typed):
+    path = tmp_path_factory.mktemp("prop") / "j.db"
+    with open_log(path) as log:
+        job = log.new_job("Harbour Road substation")
+        entry = log.add_entry(job.id, "locate", {"delay": typed}, {"kind": typed,
+                              "events": [{"kind": typed}]}, label=label, note=note)
+        assert (entry.label, entry.note) == (label.strip(), note.strip())
+        assert entry.inputs == {"delay": typed}
+        text = job_csv(log.job(job.id), log.entries(job.id))
+        md = job_markdown(log.job(job.id), log.entries(job.id))
+    rows = list(csv.reader(io.StringIO(text)))
+    assert all(len(r) == len(rows[0]) for r in rows)
+    for row in rows:
+        for cell in row:
+            assert not cell.startswith(FORMULA_STARTS)
+    first = _csv_rows(text)[0]
+    assert first["label"] == neutralise(label.strip()) and first["note"] == neutralise(note.strip())
+    # every Markdown table keeps its shape: no unescaped | or line break gets into a cell
+    tables, current = [], []
+    for line in md.splitlines() + [""]:
+        if line.startswith("|"):
+            current.append(len(re.split(r"(?<!\\)\|", line)))
+        elif current:
+            tables.append(current)
+            current = []
+    assert tables and all(len(set(t)) == 1 for t in tables), tables

@@ -247,10 +247,10 @@ class JobLog:
             raise self._refuse(str(exc)) from None
         except OSError as exc:
             raise JobLogError(f"cannot read {self.path} ({exc.strerror})") from None
-        # With no write-ahead log beside it the file is the whole truth: open it as
-        # immutable so not even a shared-memory side file is made.
-        wal = Path(f"{self.path}-wal")
-        uri = self.path.resolve().as_uri() + ("?mode=ro" if wal.exists() else "?immutable=1")
+        # With no write-ahead log (or rollback journal) beside it the file is the whole
+        # truth: open it as immutable so not even a shared-memory side file is made.
+        side = any(Path(f"{self.path}{s}").exists() for s in ("-wal", "-journal"))
+        uri = self.path.resolve().as_uri() + ("?mode=ro" if side else "?immutable=1")
         try:
             con = sqlite3.connect(uri, uri=True, timeout=self.busy_timeout_s)
         except sqlite3.Error as exc:
