@@ -232,6 +232,8 @@ class JobLog:
                 if not self.path.exists():
                     os.replace(tmp, self.path)
             _fsync_dir(self.path.parent)
+        except (OSError, sqlite3.Error) as exc:
+            raise JobLogError(f"cannot create {self.path} ({exc}); nothing was written") from None
         finally:
             for leftover in (tmp, tmp + "-wal", tmp + "-shm"):
                 try:
