@@ -269,3 +269,41 @@ async def test_demo_shows_its_own_job_and_leaves_the_users_log_alone():
         table = app.query_one(EntryTable)
         await wait_for(pilot, lambda: table.row_count >= 5)
     assert not os.path.exists(os.environ["HALFTRIP_DB"])
+
+
+async def test_locate_panel_saves_what_the_cli_saves_and_reopens_cli_entries(capsys):
+    """The real Locate panel: Ctrl+S stores the same inputs and result as
+    'halftrip locate ... --save'; a run saved from the CLI reopens in the Run tab."""
+    from textual.widgets import TabbedContent
+
+    from tui.app import create_app
+    from tui.cli import main
+
+    assert main(["log", "new", "Harbour Road substation"]) == 0
+    assert main(["locate", "245 ns", "--cable", "rg58", "--json", "--save",
+                 "--label", "from the CLI"]) == 0
+    assert main(["locate", "131 ns", "--run", "1.5 m:rg58, 28 m:hardline-50-half, 2 m:rg58",
+                 "--save", "--label", "mast run"]) == 0
+    capsys.readouterr()
+    app = create_app(panels=("locate", "log"), start_panel="locate")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await started(pilot)
+        await type_into(pilot, "locate-one-delay", "245 ns")
+        await type_into(pilot, "locate-one-cable", "rg58")
+        await pilot.press("ctrl+s")
+        await _answer(pilot, "from the panel", "")
+        await wait_for(pilot, lambda: len(_entries()) == 3)
+        cli, _run, tui = _entries()
+        assert tui.kind == cli.kind == "locate"
+        assert tui.inputs == cli.inputs == {"delay": "245 ns", "cable": "rg58"}
+        # the same numbers under the same keys (the panel may add keys of its own)
+        assert {k: tui.result.get(k) for k in cli.result} == cli.result
+
+        table = await _log_table(pilot)
+        table.select(2)  # the run saved from the CLI (kind "locate", a run input)
+        await pilot.press("o")
+        await wait_for(pilot, lambda: app.current_panel == "locate")
+        tabs = app.query_one("#locate-modes", TabbedContent)
+        await wait_for(pilot, lambda: tabs.active == "locate-tab-run")
+        assert app.query_one("#locate-run-run", Input).value.startswith("1.5 m:rg58")
+        assert app.query_one("#locate-run-delay", Input).value == "131 ns"

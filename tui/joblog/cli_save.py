@@ -28,9 +28,14 @@ def inputs_from_args(args) -> dict:
 
 
 def command_kind(args) -> str:
-    """The command's own name (not an alias the user typed)."""
+    """The entry kind: the command module's ``log_kind(args)`` if it has one (a command
+    with modes the terminal interface saves as kinds of their own), else the command's own
+    name (not an alias the user typed)."""
     func = getattr(args, "func", None)
     module = importlib.import_module(func.__module__) if func else None
+    hook = getattr(module, "log_kind", None)
+    if hook is not None:
+        return hook(args)
     name = getattr(module, "NAME", None) or args.command
     return name[0] if isinstance(name, tuple) else name
 

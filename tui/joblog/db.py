@@ -43,9 +43,10 @@ from pathlib import Path
 from calc.errors import InputError
 from tui.joblog import schema
 
-# Kinds of entry: one per calculation command that can be saved, plus a plain note.
-KINDS = ("locate", "calibrate", "cut", "match", "harness", "trim", "stub", "echo",
-         "simulate", "trace", "note")
+# Kinds of entry: one per calculation that can be saved (the Locate panel saves its run and
+# both-ends modes as kinds of their own), plus a plain note.
+KINDS = ("locate", "locate-run", "locate-two-ended", "calibrate", "cut", "match", "harness",
+         "trim", "stub", "echo", "simulate", "trace", "note")
 # Status tags exclude each other: an entry passes, fails or needs a recheck.
 STATUS_TAGS = ("pass", "fail", "recheck")
 _TAG = re.compile(r"^[a-z0-9][a-z0-9._/+-]{0,31}$")

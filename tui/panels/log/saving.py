@@ -192,10 +192,28 @@ def panel_for_kind(specs, kind: str):
     return None
 
 
-def _form_for_kind(panel, kind: str):
+def _field_keys(form) -> set[str]:
+    fields = form.fields()
+    prefix = _prefix([f.field_name for f in fields])
+    return {input_key(f.field_name, prefix) for f in fields}
+
+
+def form_for(panel, kind: str, inputs: dict):
+    """The panel's form for an entry: the one with the entry's ``LOG_KIND`` if it has a
+    field for every input, else the form with fields for the most inputs (an entry saved
+    from the CLI under the command's kind may belong to another of the panel's forms)."""
     forms = _forms(panel)
-    return next((f for f in forms if getattr(f, "LOG_KIND", None) == kind),
-                forms[0] if len(forms) == 1 else None)
+    wanted = {k.replace("-", "_") for k in inputs}
+
+    def score(form) -> tuple[int, bool]:
+        return len(wanted & _field_keys(form)), getattr(form, "LOG_KIND", None) == kind
+
+    exact = [f for f in forms if getattr(f, "LOG_KIND", None) == kind
+             and wanted <= _field_keys(f)]
+    if exact:
+        return exact[0]
+    best = max(forms, key=score, default=None)
+    return best if best is not None and (score(best)[0] or len(forms) == 1) else None
 
 
 def fill_form(form, inputs: dict) -> list[str]:
@@ -236,7 +254,7 @@ async def reopen(app, entry) -> str:
     if hook is not None:
         hook(entry)
         return f"Entry {entry.id} reopened in {spec.title}."
-    form = _form_for_kind(panel, entry.kind)
+    form = form_for(panel, entry.kind, entry.inputs)
     if form is None:
         return f"{spec.title} has no form for {entry.kind} entries."
     _show_pane(form)
