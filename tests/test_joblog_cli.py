@@ -159,3 +159,23 @@ def test_locate_save_keeps_what_was_typed_and_printed(capsys):
     assert entry.result == printed
     # d = VF c0 t / 2 with c0 = 299 792 458 m/s (SI definition), VF 0.66 for the RG-58 family
     assert entry.result["distance_m"] == pytest.approx(0.66 * 299_792_458 * 245e-9 / 2, rel=1e-9)
+
+
+def test_command_hooks_choose_the_kind_and_add_to_the_stored_result(capsys, loggable_velocity,
+                                                                     monkeypatch):
+    """``log_kind(args)`` and ``log_result(args, data)`` on a command module: what a trace
+    command uses to keep its samples for the report's picture without printing them."""
+    import tui.commands.velocity as velocity
+
+    samples = {"distance_m": [0.0, 10.0, 20.0, 30.0], "level": [0.0, 0.0, 1.0, 1.0]}
+    monkeypatch.setattr(velocity, "log_kind", lambda args: "trace", raising=False)
+    monkeypatch.setattr(velocity, "log_result", lambda args, data: {**data, "trace": samples},
+                        raising=False)
+    _run(capsys, "log", "new", "Harbour Road substation")
+    code, out, _ = _run(capsys, "velocity", "--vf", "0.66", "--json", "--save")
+    assert code == 0 and "trace" not in json.loads(out)  # printed output unchanged
+    with open_log(os.environ["HALFTRIP_DB"]) as log:
+        (entry,) = log.entries(1)
+    assert entry.kind == "trace" and entry.result["trace"] == samples
+    report = _run(capsys, "log", "export", "--format", "md")[1]
+    assert "Trace picture:" in report and "```text" in report

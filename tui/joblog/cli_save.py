@@ -27,12 +27,23 @@ def inputs_from_args(args) -> dict:
             if k not in NOT_INPUTS and v is not None and v is not False}
 
 
+def _command_module(args):
+    func = getattr(args, "func", None)
+    return importlib.import_module(func.__module__) if func else None
+
+
+def logged_result(args, data: dict) -> dict:
+    """What is stored: ``data`` as emitted, or the command module's ``log_result(args, data)``
+    (for example a trace command adding its samples, for the report's picture)."""
+    hook = getattr(_command_module(args), "log_result", None)
+    return hook(args, data) if hook is not None else data
+
+
 def command_kind(args) -> str:
     """The entry kind: the command module's ``log_kind(args)`` if it has one (a command
     with modes the terminal interface saves as kinds of their own), else the command's own
     name (not an alias the user typed)."""
-    func = getattr(args, "func", None)
-    module = importlib.import_module(func.__module__) if func else None
+    module = _command_module(args)
     hook = getattr(module, "log_kind", None)
     if hook is not None:
         return hook(args)
@@ -64,7 +75,8 @@ def save_from_cli(args, data: dict) -> None:
     try:
         job_id = parse_id(getattr(args, "job", None))
         with open_log(getattr(args, "db", None), create=False, notice=stderr_notice) as log:
-            entry = save_result(log, command_kind(args), inputs_from_args(args), data,
+            entry = save_result(log, command_kind(args), inputs_from_args(args),
+                                logged_result(args, data),
                                 job_id=job_id, label=getattr(args, "label", None),
                                 note=getattr(args, "note", None))
             job = log.job(entry.job_id)

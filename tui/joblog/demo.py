@@ -40,7 +40,7 @@ def build_demo_log(path: Path) -> None:
     """Create the demo job log at ``path`` (which must not exist yet)."""
     from tui.cli import build_parser
     from tui.commands.common import last_emitted
-    from tui.joblog.cli_save import command_kind, inputs_from_args
+    from tui.joblog.cli_save import command_kind, inputs_from_args, logged_result
     from tui.joblog.db import open_log
     from tui.joblog.save import save_result
 
@@ -59,6 +59,7 @@ def build_demo_log(path: Path) -> None:
                 except InputError:
                     continue
             entry = save_result(log, command_kind(args), inputs_from_args(args),
-                                dict(last_emitted()), job_id=job.id, label=label, note=note)
+                                logged_result(args, dict(last_emitted())), job_id=job.id,
+                                label=label, note=note)
             if tags:
                 log.tag(entry.id, tags)
