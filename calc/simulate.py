@@ -51,7 +51,7 @@ import numpy as np
 from calc.cable import causal_basis, causal_line_coefficients
 from calc.constants import C0_M_PER_S
 from calc.errors import InputError
-from calc.loads import Load, component_kind, reflection_polynomials
+from calc.loads import Load, check_component, component_kind, reflection_polynomials
 from calc.parse import parse
 
 #: Largest number of output samples (time, distance and level arrays).
@@ -190,7 +190,8 @@ def parse_lump(text: str, n_segments: int, field: str = "--lump") -> Lump:
         raise InputError(field, f"{where!r} is not a segment of this run (1 to {n_segments})",
                          LUMP_EXAMPLE)
     kind = component_kind(value)
-    return Lump(_LUMP_KIND[kind], parse(value, field, kind), int(where) - 1)
+    return Lump(_LUMP_KIND[kind], check_component(kind, parse(value, field, kind), field),
+                int(where) - 1)
 
 
 # -- rational two-port pieces ---------------------------------------------
@@ -500,8 +501,14 @@ def _check(segments, load, lumps, source_z_ohm, rise_time_s, pulse_width_s, n_po
                              "1:2 nH")
         if not math.isfinite(lp.value) or lp.value < 0 or (lp.value == 0 and lp.kind != "series_r"):
             raise InputError("--lump", "a lumped value must be positive", "1:2 nH")
+        check_component({"series_r": "resistance", "series_l": "inductance",
+                         "shunt_c": "capacitance"}[lp.kind], lp.value, "--lump")
     if not isinstance(load, Load):
         raise InputError("--load", "not a load", "75 ohm")
+    for kind, value in (("resistance", load.resistance_ohm), ("inductance", load.inductance_h),
+                        ("capacitance", load.capacitance_f)):
+        if value is not None:
+            check_component(kind, value, "--load")
     if not load.has_step_response:
         raise InputError("--load", "an impedance known at one frequency has no trace; give it "
                          "as R + L or R || C", "50 ohm + 20 nH")

@@ -118,7 +118,7 @@ def _lines(args, segments, p) -> list[str]:
             if p.pulse_width_s else f"step, rise time {fmt.time(p.rise_time_s)} (10-90 %)")
     total = sum(s.length_m for s in segments)
     lines = []
-    for line in (f"run        {args.run}  ({len(segments)} segments, {length(total)}, round "
+    for line in (f"run        {args.run}  ({len(segments)} segment{'s' if len(segments) > 1 else ''}, {length(total)}, round "
                  f"trip {fmt.time(p.round_trip_s)})",
                  f"load       {args.load}" + (f"   lumps: {', '.join(args.lump)}"
                                               if args.lump else ""),
