@@ -21,9 +21,12 @@ class WarningLine(Static):
         self.display = False
 
     def set_hazards(self, tags, possibly_live: bool = False) -> None:
-        from tui.safety import warning_line
-
         self.tags = tuple(dict.fromkeys(tags))
+        if not self.tags and not possibly_live:
+            self.display = False
+            return
+        from tui.safety import warning_line  # reads the caution text (once)
+
         line = warning_line(self.tags, possibly_live)
         self.display = bool(line)
         self.update(line)
