@@ -42,6 +42,10 @@ def test_every_tag_section_is_complete(text):
         assert safety.cautions_for([tag])[:2] == [safety.general(), s]
 
 
+def test_labels_fit_the_panel_list(text):
+    assert all(len(s.label) <= 22 for s in text.sections.values())
+
+
 def test_required_topics_are_present(text):
     kinds = {sid: s.kind for sid, s in text.sections.items()}
     for topic in ("instrument", "height", "weather"):

@@ -32,6 +32,8 @@ APP_BINDINGS = [
     Binding("f1,question_mark", "help", "Help", id="help", key_display="F1"),
     Binding("u,f9", "switch_units", "Units", id="units", key_display="u"),
     Binding("d", "switch_theme", "Dark/light", id="theme", show=False),
+    Binding("exclamation_mark", "mark_possibly_live", "Mark line possibly live",
+            id="possibly-live", key_display="!", show=False),
     Binding("escape", "back_out", "Back", id="back", show=False),
     Binding("ctrl+q", "quit", "Quit", id="quit", priority=True),
 ]
@@ -176,6 +178,20 @@ class HalftripApp(App[int]):
     def on_key_bar_selected(self, message: KeyBar.Selected) -> None:
         if isinstance(message.bar, PanelBar):
             self.run_action(f"open_panel('{message.name}')")
+
+    def action_mark_possibly_live(self) -> None:
+        """``!``: mark (or unmark) the current panel's line as possibly live."""
+        from tui.widgets.warning_line import WarningLine
+
+        name = self.current_panel
+        lines = self.query_one(f"#{name}").query(WarningLine) if name else []
+        if not lines:
+            self.notify("This panel has no line to mark; see the Safety panel", timeout=3)
+            return
+        line = lines.first()
+        line.possibly_live = not line.possibly_live
+        self.notify("Line marked possibly live" if line.possibly_live
+                    else "Mark removed; the cable's own cautions still apply", timeout=3)
 
     # ------------------------------------------------------------ preferences
     def change_prefs(self, sections: dict[str, dict] | None = None, **typed) -> None:

@@ -8,17 +8,16 @@
   :func:`one_line_caution` is the single line a CLI command prints on stderr;
   :func:`warning_line` is the line a TUI panel shows; :func:`text_lines`
   lays sections out for a terminal or a panel.
-* The first-start notice is acknowledged per text version:
-  :func:`notice_needed` and :func:`acknowledge` keep the acknowledged
-  version in the ``[safety]`` table of the preferences file
-  (:func:`tui.paths.preferences_path`), rewriting only that table, atomically.
+* The first-start notice is acknowledged per text version: the version is
+  kept in the ``[safety]`` table of the preferences file (:mod:`tui.prefs`);
+  :func:`notice_needed` compares it with the current text, and
+  :func:`acknowledgement` gives the keys to store.
 """
 
 from __future__ import annotations
 
 import hashlib
 import json
-import re
 import textwrap
 import tomllib
 from dataclasses import dataclass
@@ -50,6 +49,7 @@ class Section:
     id: str  # a hazard tag (kind "tag") or a topic id
     kind: str
     title: str
+    label: str  # its name in the Safety panel's list
     points: tuple[str, ...]
     rules: tuple[Rule, ...]
     voltages: tuple[Voltage, ...] = ()
@@ -100,7 +100,7 @@ def _section(sid: str, raw: dict, rules: dict[str, Rule]) -> Section:
     voltages = tuple(Voltage(_text(v, "what", where), _text(v, "value", where),
                              _text(v, "source", where)) for v in raw.get("voltages", []))
     return Section(
-        id=sid, kind=kind, title=_text(raw, "title", where),
+        id=sid, kind=kind, title=_text(raw, "title", where), label=_text(raw, "label", where),
         points=tuple(p.strip() for p in points),
         rules=tuple(rules[r] for r in rule_ids),
         voltages=voltages, also=tuple(raw.get("also", [])),
@@ -234,83 +234,32 @@ def section_record(section: Section) -> dict:
 
 # ------------------------------------------------------------ first-start notice
 
-class PreferencesWriteError(OSError):
-    """The acknowledgement could not be stored; the preferences file was left as it was."""
+ACK_KEY = "acknowledged_text_version"
 
 
-def _prefs_path(path: Path | None) -> Path:
-    if path is not None:
-        return Path(path)
-    from tui.paths import preferences_path
+def acknowledged_version(prefs=None) -> str | None:
+    """The caution-text version last acknowledged (None: never, or unreadable file).
 
-    return preferences_path()
+    ``prefs`` is a :class:`tui.prefs.Preferences` (default: read the file).
+    """
+    if prefs is None:
+        from tui.prefs import load_preferences
 
-
-def acknowledged_version(path: Path | None = None) -> str | None:
-    """The caution-text version last acknowledged, or None (never, or unreadable file)."""
-    try:
-        data = tomllib.loads(_prefs_path(path).read_text(encoding="utf-8"))
-    except (OSError, UnicodeDecodeError, tomllib.TOMLDecodeError):
-        return None
-    table = data.get(PREFS_TABLE)
-    value = table.get("acknowledged_text_version") if isinstance(table, dict) else None
+        prefs = load_preferences()
+    value = prefs.section(PREFS_TABLE).get(ACK_KEY)
     return value if isinstance(value, str) else None
 
 
-def notice_needed(path: Path | None = None) -> bool:
+def notice_needed(prefs=None) -> bool:
     """True when the first-start notice must be shown (never acknowledged, or text changed)."""
-    return acknowledged_version(path) != text_version()
+    return acknowledged_version(prefs) != text_version()
 
 
-def acknowledge(path: Path | None = None, version: str | None = None) -> None:
-    """Remember that the notice for ``version`` (default: the current text) was acknowledged.
+def acknowledgement(version: str | None = None) -> dict[str, str]:
+    """The keys of the ``[safety]`` preferences table that record an acknowledgement.
 
-    Only the ``[safety]`` table of the preferences file is rewritten; every
-    other byte is kept. A file that does not read as TOML is not touched
-    (:class:`PreferencesWriteError`), and the write is atomic.
+    The app stores them with ``app.update_section(PREFS_TABLE, **acknowledgement())``
+    (:mod:`tui.prefs` keeps every other key and writes atomically).
     """
-    from cable_catalog.loader import atomic_write_text
-
-    path = _prefs_path(path)
-    values = {"acknowledged_text_version": version or text_version(),
-              "acknowledged_at": datetime.now(UTC).strftime("%Y-%m-%dT%H:%M:%SZ")}
-    try:
-        old = path.read_text(encoding="utf-8") if path.exists() else ""
-        before = tomllib.loads(old)
-    except (OSError, UnicodeDecodeError, tomllib.TOMLDecodeError) as exc:
-        raise PreferencesWriteError(
-            f"{path}: cannot read the preferences file ({exc}); it was left as it is") from None
-    new = _replace_table(old, PREFS_TABLE, values)
-    try:
-        after = tomllib.loads(new)
-    except tomllib.TOMLDecodeError:
-        after = {}
-    before.pop(PREFS_TABLE, None)
-    if after.pop(PREFS_TABLE, None) != values or after != before:
-        raise PreferencesWriteError(
-            f"{path}: the [{PREFS_TABLE}] table could not be updated on its own; "
-            "the file was left as it is")
-    try:
-        path.parent.mkdir(parents=True, exist_ok=True)
-        atomic_write_text(path, new)
-    except OSError as exc:
-        raise PreferencesWriteError(f"{path}: cannot write ({exc})") from None
-
-
-_HEADER = re.compile(r"^\s*\[")
-
-
-def _replace_table(text: str, table: str, values: dict[str, str]) -> str:
-    """``text`` with the ``[table]`` table replaced by ``values`` (or appended)."""
-    from cable_catalog.loader import _toml_value
-
-    body = [f"[{table}]\n"] + [f"{k} = {_toml_value(v)}\n" for k, v in values.items()]
-    own = re.compile(r"^\s*\[\s*" + re.escape(table) + r"\s*\]\s*(#.*)?$")
-    lines = text.splitlines(keepends=True)
-    start = next((i for i, line in enumerate(lines) if own.match(line)), None)
-    if start is None:
-        lead = text.rstrip("\n") + "\n\n" if text.strip() else ""
-        return lead + "".join(body)
-    end = next((j for j in range(start + 1, len(lines)) if _HEADER.match(lines[j])), len(lines))
-    tail = lines[end:]
-    return "".join(lines[:start] + body + (["\n"] if tail else []) + tail)
+    return {ACK_KEY: version or text_version(),
+            "acknowledged_at": datetime.now(UTC).strftime("%Y-%m-%dT%H:%M:%SZ")}

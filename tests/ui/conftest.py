@@ -29,3 +29,16 @@ def _steady_cursor(monkeypatch):
 
     monkeypatch.setattr(Input, "cursor_blink", False)
     yield
+
+
+@pytest.fixture(autouse=True)
+def _safety_notice_acknowledged(request, monkeypatch):
+    """The first-start safety notice is modal and blocks every key until it is
+    acknowledged. Tests act as a user who has already acknowledged it, except
+    those marked ``first_start`` (tests/ui/test_safety_ui.py), which see the
+    real first start."""
+    if request.node.get_closest_marker("first_start") is None:
+        from tui import safety
+
+        monkeypatch.setattr(safety, "notice_needed", lambda prefs=None: False)
+    yield
