@@ -123,9 +123,11 @@ class HalftripApp(App[int]):
     def reload_catalog(self) -> None:
         """Read the catalog again (after the user's cable file changed)."""
         from cable_catalog.loader import load_catalog
+        from tui.commands.common import catalog as cli_catalog
         from tui.paths import user_catalog_path
 
         self.catalog = load_catalog(user_catalog_path())
+        cli_catalog.cache_clear()  # the panels that run CLI commands read this one
         self.mutate_reactive(HalftripApp.core_ready)
 
     # ----------------------------------------------------------------- panels

@@ -61,7 +61,9 @@ class Modes(Vertical):
         switcher = self.query_one(ContentSwitcher)
         for name, _title, widget in self.modes[1:]:
             if not switcher.query_children(f"#{self._mode_id(name)}"):
-                await switcher.mount(VerticalScroll(build(widget), id=self._mode_id(name)))
+                scroll = VerticalScroll(build(widget), id=self._mode_id(name))
+                scroll.display = False  # ContentSwitcher hides only what it started with
+                await switcher.mount(scroll)
 
     @property
     def current(self) -> str:
