@@ -31,6 +31,7 @@ from tui.widgets.panel_bar import PanelBar, TopBar
 APP_BINDINGS = [
     Binding("f1,question_mark", "help", "Help", id="help", key_display="F1"),
     Binding("u,f9", "switch_units", "Units", id="units", key_display="u"),
+    Binding("ctrl+s", "save_to_log", "Save to log", id="save_to_log", key_display="^s"),
     Binding("d", "switch_theme", "Dark/light", id="theme", show=False),
     Binding("exclamation_mark", "mark_possibly_live", "Mark line possibly live",
             id="possibly-live", key_display="!", show=False),
@@ -236,6 +237,13 @@ class HalftripApp(App[int]):
     def watch_theme(self, theme: str) -> None:
         if self.is_mounted and theme != self.prefs.theme:
             self.change_prefs(theme=theme)
+
+    # ---------------------------------------------------------------- job log
+    def action_save_to_log(self) -> None:
+        """Ctrl+S: save the shown panel's result to the open job (tui.panels.log.saving)."""
+        from tui.panels.log.saving import save_current
+
+        save_current(self)
 
     # ------------------------------------------------------------- help, keys
     def action_help(self) -> None:
