@@ -1,0 +1,340 @@
+"""``halftrip trace FILE``: read a recorded trace, find and name its events,
+place them on a cable or a run, and compare them with the expected run.
+
+FILE is a delimited text trace (time or distance, level) or a Touchstone
+one-port sweep (``.s1p``), which is turned into a reflection trace first.
+Nothing is written anywhere unless ``--save`` asks for a job-log entry.
+"""
+
+from __future__ import annotations
+
+import textwrap
+from pathlib import Path
+
+from tui.commands.common import (
+    add_output_options,
+    add_velocity_options,
+    emit,
+    resolve_velocity,
+    units_of,
+)
+
+NAME = "trace"
+HELP = "read a recorded trace or .s1p sweep: find, place and name its reflection events"
+LOGGABLE = True
+
+#: Largest file read (bytes): a million-sample text trace is about 20 MB.
+MAX_FILE_BYTES = 256 * 1024 * 1024
+_WIDTH = 80
+
+
+def add_arguments(parser) -> None:
+    parser.add_argument("file", metavar="FILE",
+                        help="trace file: delimited text (time or distance, level) or .s1p")
+    add_velocity_options(parser, required=False)
+    parser.add_argument("--run", metavar="RUN",
+                        help="the run the trace was taken on, from the instrument out, "
+                             "e.g. '2 m:rg58, 45 m:hardline-50-half, 1.5 m:rg58'")
+    parser.add_argument("--tolerance", metavar="PCT",
+                        help="relative VF tolerance, e.g. '3 %%' (default: the cable's)")
+    parser.add_argument("--z0", metavar="Z",
+                        help="reference impedance of the trace (default: the first cable's, "
+                             "or 50 ohm)")
+    read = parser.add_argument_group("reading the file")
+    read.add_argument("--time-unit", metavar="UNIT",
+                      help="unit of a time column when the file does not say, e.g. ns")
+    read.add_argument("--distance-unit", metavar="UNIT",
+                      help="unit of a distance column when the file does not say, e.g. m")
+    read.add_argument("--level-unit", metavar="UNIT",
+                      help="unit of the level column: V, mV, rho, mrho or %%")
+    read.add_argument("--axis-vf", metavar="X",
+                      help="velocity factor the instrument used to draw a distance axis "
+                           "(default: the cable's)")
+    read.add_argument("--incident", choices=("auto", "in-trace", "at-zero"), default="auto",
+                      help="the incident edge is in the trace (volt traces), or the trace holds "
+                           "reflections only with the reference plane at 0 (rho traces, "
+                           "sweeps); default: from the level's unit")
+    sweep = parser.add_argument_group("Touchstone sweeps")
+    sweep.add_argument("--window", choices=("kaiser", "hann", "none"), default="kaiser",
+                       help="window for the time view (default kaiser)")
+    sweep.add_argument("--kaiser-beta", metavar="B", type=float, default=6.0,
+                       help="Kaiser window beta (default 6)")
+    sweep.add_argument("--band", metavar="LOW..HIGH",
+                       help="frequencies used, e.g. '1 MHz..2 GHz' (default: the whole sweep)")
+    sweep.add_argument("--dc", metavar="LOAD",
+                       help="the far end's state at DC when the sweep lacks 0 Hz: open, short "
+                            "or a resistance (default: extrapolated)")
+    expect = parser.add_argument_group("comparing with the expected run")
+    expect.add_argument("--expect-run", metavar="RUN", help="the run as it should be")
+    expect.add_argument("--expect-load", metavar="SPEC",
+                        help="the load it should end in: open, short, match, '75 ohm', ...")
+    add_output_options(parser)
+
+
+# ------------------------------------------------------------------ inputs
+
+
+def _read_bytes(path_text: str) -> bytes:
+    from calc.errors import InputError
+
+    path = Path(path_text).expanduser()
+    try:
+        size = path.stat().st_size
+        if size > MAX_FILE_BYTES:
+            raise InputError(path_text, f"{size / 1e6:.0f} MB; at most "
+                             f"{MAX_FILE_BYTES // (1024 * 1024)} MB are read")
+        return path.read_bytes()
+    except IsADirectoryError:
+        raise InputError(path_text, "is a directory, not a trace file") from None
+    except FileNotFoundError:
+        raise InputError(path_text, "no such file") from None
+    except OSError as exc:
+        raise InputError(path_text, f"cannot read it ({exc.strerror or exc})") from None
+
+
+def _run(text: str, field: str, tolerance: float | None = None):
+    """A run from the catalog (hazard cautions on stderr); ``tolerance`` overrides each VF's."""
+    from calc.run import parse_run
+    from tui.commands.common import catalog, warn_hazards
+    from tui.commands.locate import parse_run_segments
+
+    segments = parse_run_segments(text, tolerance) if field == "--run" else \
+        parse_run(text, catalog().get, field)
+    warn_hazards([s.cable for s in segments])
+    return segments
+
+
+def _band(text: str | None) -> tuple[float | None, float | None]:
+    from calc.errors import InputError
+    from calc.parse import parse
+
+    if not text:
+        return None, None
+    if ".." not in text:
+        raise InputError("--band", "give LOW..HIGH", "1 MHz..2 GHz")
+    low, high = (p.strip() for p in text.split("..", 1))
+    f_lo = parse(low, "--band low", "frequency") if low else None
+    f_hi = parse(high, "--band high", "frequency") if high else None
+    if f_lo is not None and f_hi is not None and f_hi <= f_lo:
+        raise InputError("--band", "the high end must be above the low end", "1 MHz..2 GHz")
+    return f_lo, f_hi
+
+
+def _dc(text: str | None, z0: float) -> float | None:
+    from calc.parse import parse
+
+    if not text:
+        return None
+    word = text.strip().lower()
+    if word == "open":
+        return 1.0
+    if word == "short":
+        return -1.0
+    r = parse(text, "--dc", "resistance")
+    return (r - z0) / (r + z0)
+
+
+class _Setup:
+    """What the options say: placement, Z0, tolerance, and how to read the file."""
+
+    def __init__(self, args):
+        from calc.errors import InputError
+        from calc.parse import parse
+
+        tolerance = parse(args.tolerance, "--tolerance", "tolerance") if args.tolerance \
+            else None
+        resolved = resolve_velocity(args, args.tolerance)
+        if (resolved is None) == (args.run is None):
+            raise InputError("--cable/--vf/--run", "give the cable (a velocity option) or "
+                             "the run, one of them", "--cable rg58")
+        self.segments = None
+        self.vf = None
+        self.vf_tolerance = 0.0
+        if resolved is not None:
+            self.vf = resolved.velocity.vf
+            self.vf_tolerance = resolved.tolerance
+            self.source = resolved.source
+            cable_z0 = resolved.cable.z0_ohm if resolved.cable is not None else None
+        else:
+            self.segments = _run(args.run, "--run", tolerance)
+            self.source = f"run of {len(self.segments)} segment(s)"
+            cable_z0 = self.segments[0].cable.z0_ohm
+        if args.z0:
+            self.z0 = parse(args.z0, "--z0", "impedance")
+        else:
+            self.z0 = cable_z0 or 50.0
+        self.z0_note = None if (args.z0 or cable_z0) else "reference impedance taken as 50 ohm"
+        self.axis_vf = parse(args.axis_vf, "--axis-vf", "vf") if args.axis_vf else self.vf
+
+
+# ----------------------------------------------------------------- the work
+
+
+def analyse_file(args):
+    """Read, transform (sweeps), analyse and place: (data dict, human lines)."""
+    import numpy as np
+
+    from calc import events as ev
+    from calc.constants import C0_M_PER_S
+    from calc.errors import InputError
+    from calc.tdr import time_domain
+    from calc.trace_read import Sweep, read_file
+
+    setup = _Setup(args)
+    raw = _read_bytes(args.file)
+    got = read_file(raw, args.file, z0_ohm=setup.z0, time_unit=args.time_unit,
+                    distance_unit=args.distance_unit, level_unit=args.level_unit)
+    info: dict = {"file": args.file, "z0_ohm": setup.z0, "velocity_source": setup.source}
+    notes: list[str] = [setup.z0_note] if setup.z0_note else []
+    ringing = 0.0
+    rise = None
+    if isinstance(got, Sweep):
+        td = time_domain(got.frequency_hz, got.s11, window=args.window,
+                         kaiser_beta=args.kaiser_beta, band_hz=_band(args.band),
+                         dc_value=_dc(args.dc, setup.z0))
+        time_s, level = td.time_s, td.step
+        incident = False
+        rise, ringing = td.rise_time_s, td.ringing
+        notes += list(td.notes)
+        info.update(format="touchstone", points=int(got.frequency_hz.size),
+                    file_z0_ohm=got.file_z0_ohm, time_domain={
+                        "window": td.window, "kaiser_beta": td.kaiser_beta,
+                        "band_low_hz": td.band_low_hz, "band_high_hz": td.band_high_hz,
+                        "frequency_step_hz": td.frequency_step_hz,
+                        "alias_free_s": td.alias_free_s, "dc_value": td.dc_value,
+                        "dc_source": td.dc_source, "resampled": td.resampled})
+    else:
+        if got.axis == "distance":
+            if setup.axis_vf is None:
+                raise InputError("--axis-vf", "the trace's axis is distance: give the velocity "
+                                 "factor the instrument used to draw it", "0.66")
+            time_s = 2.0 * got.x / (setup.axis_vf * C0_M_PER_S)
+        else:
+            time_s = got.x
+        level = got.level
+        if args.incident == "auto":
+            incident = got.level_unit != "rho"
+        else:
+            incident = args.incident == "in-trace"
+        if not incident and got.level_unit == "V":
+            raise InputError("--incident", "a trace of reflections only must be in rho "
+                             "(the level in volts needs the incident edge to scale it)")
+        info.update(format="delimited", samples=int(got.x.size), axis=got.axis,
+                    level_unit=got.level_unit or None)
+    analysis = ev.analyse(np.asarray(time_s), np.asarray(level), z0_ohm=setup.z0,
+                          incident_edge=incident, rise_time_s=rise, ringing=ringing)
+    if setup.segments is None:
+        analysis = ev.place(analysis, vf=setup.vf, vf_tolerance=setup.vf_tolerance)
+    else:
+        analysis = ev.place(analysis, segments=setup.segments)
+    return setup, info, notes, analysis
+
+
+def event_record(e) -> dict:
+    """One event as a JSON record (shared with the TUI's export)."""
+    return {
+        "round_trip_delay_s": e.round_trip_delay_s,
+        "distance_m": e.distance_m,
+        "distance_low_m": e.distance_low_m,
+        "distance_high_m": e.distance_high_m,
+        "segment_index": e.segment_index,
+        "cable_id": e.cable_id,
+        "offset_in_segment_m": e.offset_in_segment_m,
+        "beyond_end": e.beyond_end,
+        "at_far_end": e.at_far_end,
+        "size": e.size,
+        "level_before": e.level_before,
+        "level_after": e.level_after,
+        "level_settled": e.level_settled,
+        "impedance_ohm": e.impedance_ohm,
+        "shape": e.shape,
+        "kind": e.kind,
+        "confidence": e.confidence,
+        "description": e.description,
+        "snr": e.snr,
+        "time_constant_s": e.time_constant_s,
+        "capacitance_f": e.capacitance_f,
+        "inductance_h": e.inductance_h,
+        "alternatives": list(e.alternatives),
+    }
+
+
+def _kind_text(kind: str) -> str:
+    return kind.replace("_", " ")
+
+
+def _where(e, units: str, fraction: int) -> str:
+    """The second line of an event: range, segment, or past the end."""
+    from tui import fmt
+
+    if e.distance_m is None:
+        return ""
+    if e.beyond_end:
+        return "past the far end of the described run" + \
+            (" (at the end, within the cables' tolerance)" if e.at_far_end else "")
+    parts = []
+    if e.distance_low_m is not None and e.distance_high_m is not None \
+            and e.distance_high_m > e.distance_low_m:
+        parts.append(f"{fmt.length(e.distance_low_m, units, fraction)} to "
+                     f"{fmt.length(e.distance_high_m, units, fraction)}")
+    if e.segment_index is not None:
+        parts.append(f"segment {e.segment_index + 1} ({e.cable_id}), "
+                     f"{fmt.length(e.offset_in_segment_m, units, fraction)} into it")
+    if e.at_far_end:
+        parts.append("at the far end")
+    return "; ".join(parts)
+
+
+def describe(info: dict, notes: list[str], analysis, units: str, fraction: int) -> list[str]:
+    """Human lines for an analysis (shared with the TUI)."""
+    from tui import fmt
+
+    a = analysis
+    lines = [f"trace {info['file']} ({info['format']}"
+             + (f", {info['samples']} samples)" if "samples" in info
+                else f", {info['points']} frequency points)")]
+    if a.incident is not None:
+        lines.append(f"incident edge at {fmt.time(a.incident.time_s)}, rise time "
+                     f"{fmt.time(a.rise_time_s)}; levels as fractions of its height (rho)")
+    else:
+        lines.append(f"reflections only, reference plane at 0; rise time {fmt.time(a.rise_time_s)}")
+    lines.append(f"noise {a.noise_rms:.2g} rho rms; smallest event reported {a.threshold:.2g} rho;"
+                 f" Z0 {fmt.impedance(a.z0_ohm)}")
+    lines.append(f"placed with {info['velocity_source']}")
+    if not a.events:
+        lines.append("no reflection stands out of the noise between "
+                     f"{fmt.time(max(a.start_delay_s, 0.0))} and {fmt.time(a.end_delay_s)}")
+    else:
+        lines.append("")
+        lines.append(f"{'#':>2}  {'delay':>10}  {'distance':>15}  {'size':>7}  {'Z ohm':>7}  "
+                     f"{'kind':<17} {'conf':>4}")
+        for i, e in enumerate(a.events, start=1):
+            z = "open" if e.impedance_ohm == float("inf") else f"{e.impedance_ohm:.4g}"
+            dist = "-" if e.distance_m is None else fmt.length(e.distance_m, units, fraction)
+            lines.append(f"{i:>2}  {fmt.time(e.round_trip_delay_s):>10}  {dist:>15}  "
+                         f"{e.size:+7.3f}  {z:>7}  {_kind_text(e.kind):<17} {e.confidence:4.2f}")
+            where = _where(e, units, fraction)
+            for text in ([where] if where else []) + [e.description]:
+                lines += textwrap.wrap(text, _WIDTH, initial_indent="    ",
+                                       subsequent_indent="    ")
+    for note in list(a.notes) + notes:
+        lines += textwrap.wrap("note: " + note, _WIDTH, subsequent_indent="      ")
+    return lines
+
+
+def run(args) -> int:
+    units, fraction = units_of(args)
+    setup, info, notes, analysis = analyse_file(args)
+    a = analysis
+    data = {
+        **info,
+        "incident_edge_s": a.incident.time_s if a.incident else None,
+        "rise_time_s": a.rise_time_s,
+        "sample_interval_s": a.sample_interval_s,
+        "noise_rms": a.noise_rms,
+        "threshold": a.threshold,
+        "events": [event_record(e) for e in a.events],
+        "notes": list(a.notes) + notes,
+    }
+    lines = describe(info, notes, analysis, units, fraction)
+    return emit(args, data, lines)
