@@ -20,8 +20,8 @@ def open_line(length_m: float = 20.0, n: int = 3001) -> PlotData:
     d = VF * C0 * t / 2
     level = np.where(d >= length_m, 1.0, 0.0)
     t_end = 2 * length_m / (VF * C0)
-    half = Mark("1", t_end / 2, length_m / 2, 0.0, "nothing here")
-    end = Mark("2", t_end, length_m, 1.0, "open")
+    half = Mark("1", t_end / 2, length_m / 2, "nothing here")
+    end = Mark("2", t_end, length_m, "open")
     return PlotData(t, d, level, (half, end), z0_ohm=50.0)
 
 
@@ -168,3 +168,11 @@ async def test_empty_plot_says_so():
         plot.show(None)
         await pilot.press("right", "left_square_bracket", "plus")
         assert plot.readout == "no trace yet"
+
+
+def test_labels_that_would_touch_are_folded_into_a_plus():
+    from tui.widgets.trace_plot import label_cells
+
+    # 10 columns over 0..10 m: marks at 1, 1.5 (same cell), 5 and 9.9 (last cell)
+    cells = label_cells([(5.0, "3"), (1.0, "1"), (1.5, "2"), (9.9, "m1")], 0.0, 10.0, 10)
+    assert cells == [(1, "1"), (2, "+"), (5, "3"), (8, "m"), (9, "1")]

@@ -52,17 +52,17 @@ LEVEL_MARGIN = 0.12
 
 @dataclass(frozen=True)
 class Mark:
-    """One numbered point on the trace: an event found or an arrival predicted.
+    """One numbered place on the trace: an event found or an arrival predicted.
 
-    ``label`` is shown on the plot (one or two characters, the number in the
-    panel's list); ``text`` in the readout when the cursor is on the mark.
-    ``other`` marks belong to the second trace (drawn in its style).
+    ``label`` is shown above the trace at that distance (one or two
+    characters, the number in the panel's list); ``text`` in the readout when
+    the cursor is on the mark. ``other`` marks belong to the second trace
+    (drawn in its style, below the trace).
     """
 
     label: str
     time_s: float
     distance_m: float
-    level: float
     text: str = ""
     other: bool = False
 
@@ -113,6 +113,30 @@ def envelope(x: np.ndarray, y: np.ndarray, lo: float, hi: float, bins: int
     return bx, by
 
 
+def label_cells(positions: list[tuple[float, str]], lo: float, hi: float, columns: int
+                ) -> list[tuple[int, str]]:
+    """Where the marks' labels go on one row of ``columns`` cells: ``(cell, character)``.
+
+    ``positions`` are ``(distance, label)`` in any order. Each label starts at
+    its mark's cell; a label that would touch the one before it is left out
+    and the one before gets a ``+`` (more marks here: the list has them all).
+    """
+    cells: list[tuple[int, str]] = []
+    last_end, crowded = -2, False
+    for d, label in sorted(positions):
+        col = min(max(int((d - lo) / (hi - lo) * columns), 0), columns - 1)
+        start = min(col, columns - len(label))
+        if start <= last_end + 1:
+            if not crowded and last_end + 1 < columns:
+                cells.append((last_end + 1, "+"))
+                last_end += 1
+                crowded = True
+            continue
+        cells += [(start + k, ch) for k, ch in enumerate(label)]
+        last_end, crowded = start + len(label) - 1, False
+    return cells
+
+
 class _UnitTicks(NumericAxisFormatter):
     """Round-number ticks with the unit after the last label (``... 40  50 m``)."""
 
@@ -126,6 +150,17 @@ class _UnitTicks(NumericAxisFormatter):
         if labels:
             labels[-1] = f"{labels[-1]} {self.unit}"
         return ticks, labels
+
+
+class _LevelTicks(NumericAxisFormatter):
+    """Round-number level ticks, no more than one every other row."""
+
+    def __init__(self, rows: int) -> None:
+        super().__init__()
+        self.most = max(rows // 2, 2)
+
+    def get_ticks_and_labels(self, min_, max_, max_ticks=8):
+        return super().get_ticks_and_labels(min_, max_, min(max_ticks, self.most))
 
 
 class TracePlot(PlotWidget, inherit_bindings=False):
@@ -285,6 +320,7 @@ class TracePlot(PlotWidget, inherit_bindings=False):
             return
         data, s = self.data, self._scale
         self.set_x_formatter(_UnitTicks("ft" if s != 1.0 else "m"))
+        self.set_y_formatter(_LevelTicks(self._rows()))
         lo, hi = self._visible()
         bins = self._columns() * DOTS_PER_COLUMN
         if data.other_distance_m is not None and data.other_level is not None:
@@ -299,26 +335,34 @@ class TracePlot(PlotWidget, inherit_bindings=False):
         here = float(data.distance_m[self.cursor]) / s  # the cursor stops short of the marks
         self.plot([here, here], [y_lo + 2 * half_row, y_hi - 2 * half_row],
                   line_style=self._style("trace-plot--cursor"), hires_mode=HiResMode.BRAILLE)
-        for mark in data.marks:  # found marks along the top, the other trace's along the bottom
-            if lo <= mark.distance_m <= hi:
-                style = self._style("trace-plot--other-mark" if mark.other else "trace-plot--mark")
-                y = y_lo + half_row if mark.other else y_hi - half_row
-                self.scatter([mark.distance_m / s], [y], marker=mark.label[:2],
-                             marker_style=style)
+        columns = self._columns()
+        for other, y in ((False, y_hi - half_row), (True, y_lo + half_row)):
+            # found marks along the top, the other trace's along the bottom
+            style = self._style("trace-plot--other-mark" if other else "trace-plot--mark")
+            placed = [(m.distance_m, m.label) for m in data.marks
+                      if m.other == other and lo <= m.distance_m <= hi]
+            for cell, char in label_cells(placed, lo, hi, columns):
+                x = lo + (cell + 0.5) / columns * (hi - lo)
+                self.scatter([x / s], [y], marker=char, marker_style=style)
         self.set_xlimits(lo / s, hi / s)
         self.set_ylimits(y_lo, y_hi)
         self._update_readout()
 
     def _level_limits(self) -> tuple[float, float]:
+        """Level range shown: the data (and zero), a margin, and one free row for
+        the marks above (and below, when the other trace has marks)."""
         data = self.data
         levels = [data.level] + ([data.other_level] if data.other_level is not None else [])
         y_lo = min(float(np.nanmin(v)) for v in levels)
         y_hi = max(float(np.nanmax(v)) for v in levels)
         y_lo, y_hi = min(y_lo, -0.1), max(y_hi, 0.1)  # zero always in view
-        span, rows = y_hi - y_lo, self._rows()
-        # room for the marks' rows above and below the trace
-        pad = max(LEVEL_MARGIN * span, 1.5 * span / max(rows - 3, 1))
-        return y_lo - pad, y_hi + pad
+        span, rows = y_hi - y_lo, max(self._rows(), 3)
+        margin = LEVEL_MARGIN * span
+        if any(m.other for m in data.marks):
+            pad = max(margin, span / (rows - 2))  # a row of height (span + 2 pad) / rows
+            return y_lo - pad, y_hi + pad
+        pad = max(margin, (span + margin) / (rows - 1))
+        return y_lo - margin, y_hi + pad
 
     def notify_style_update(self) -> None:
         """Theme changed: styles are read again (they are baked into the datasets)."""
