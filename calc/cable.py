@@ -57,6 +57,43 @@ class Cable:
         return (k1 * np.sqrt(np.abs(f_mhz)) + k2 * np.abs(f_mhz)) / 100.0
 
 
+#: Frequency at which a cable's dielectric-loss phase term is zero: the
+#: catalog VF is taken to hold there (see :func:`propagation_terms`).
+DIELECTRIC_REF_HZ = 1e9
+
+
+def propagation_terms(
+    vf: float, k1: float | None = None, k2: float | None = None
+) -> tuple[complex, complex, complex]:
+    r"""The three terms of the propagation constant, for ``f >= 0``:
+
+    .. math::
+
+        \gamma(f) = t_s\sqrt{f} + t_f\,f + t_g\,f\ln(f/f_{ref})
+
+    with :math:`t_s = (1+j)a_1` (skin effect with its equal phase term),
+    :math:`t_f = a_2 + j2\pi/(VF\,c_0)` and :math:`t_g = -j(2/\pi)a_2`, where
+    ``a1`` and ``a2`` are the k1 and k2 loss terms in Np/m. The last term is the
+    phase that a loss rising in proportion to f must carry to stay causal
+    (Kramers-Kronig; it vanishes at ``f_ref`` = :data:`DIELECTRIC_REF_HZ`).
+    Without it, or without the skin term's phase, a reflection seen through
+    the line shows energy ahead of its edge.
+    """
+    a1 = (k1 or 0.0) / 100.0 / DB_PER_NEPER / math.sqrt(1e6)  # Np/m/sqrt(Hz)
+    a2 = (k2 or 0.0) / 100.0 / DB_PER_NEPER / 1e6  # Np/m/Hz
+    t_s = complex(a1, a1)
+    t_f = complex(a2, 2.0 * math.pi / (vf * C0_M_PER_S))
+    t_g = complex(0.0, -2.0 / math.pi * a2)
+    return t_s, t_f, t_g
+
+
+def f_log_f(frequency_hz: np.ndarray | float) -> np.ndarray:
+    r""":math:`|f|\ln(|f|/f_{ref})`, with its limit 0 at f = 0."""
+    fa = np.abs(np.asarray(frequency_hz, dtype=float))
+    with np.errstate(divide="ignore", invalid="ignore"):
+        return np.where(fa > 0.0, fa * np.log(fa / DIELECTRIC_REF_HZ), 0.0)
+
+
 def propagation_constant(
     frequency_hz: np.ndarray | float,
     vf: float,
@@ -67,22 +104,21 @@ def propagation_constant(
 
     .. math::
 
-        \\gamma(f) = j\\frac{2\\pi f}{VF\\,c_0} + (1+j)\\,a_1\\sqrt{f} + a_2 f
+        \\gamma(f) = j\frac{2\\pi f}{VF\\,c_0} + (1+j)\\,a_1\\sqrt{f}
+                     + a_2 f\\,\bigl(1 - j\tfrac{2}{\\pi}\\ln(f/f_{ref})\bigr)
 
-    where ``a1 sqrt(f)`` and ``a2 f`` are the k1 and k2 loss terms in Np/m.
-    The skin-effect term carries an equal phase term so the line stays causal
-    (a sqrt(f) loss without it puts energy ahead of the edge). ``VF`` is the
-    high-frequency velocity factor. Negative frequencies give the conjugate,
-    so a time-domain transform stays real.
+    where ``a1 sqrt(f)`` and ``a2 f`` are the k1 and k2 loss terms in Np/m
+    (terms and their causal phases: :func:`propagation_terms`). The skin-effect
+    term carries an equal phase term so the line stays causal (a sqrt(f) loss
+    without it puts energy ahead of the edge). ``VF`` is the high-frequency
+    velocity factor. Negative frequencies give the conjugate, so a time-domain
+    transform stays real.
     """
     f = np.asarray(frequency_hz, dtype=float)
     fa = np.abs(f)
-    sign = np.sign(f)
-    beta = 2.0 * math.pi * f / (vf * C0_M_PER_S)
-    a1 = (k1 or 0.0) / 100.0 / DB_PER_NEPER / math.sqrt(1e6)  # Np/m/sqrt(Hz)
-    a2 = (k2 or 0.0) / 100.0 / DB_PER_NEPER / 1e6  # Np/m/Hz
-    skin = a1 * np.sqrt(fa)
-    return skin + a2 * fa + 1j * (beta + sign * skin)
+    t_s, t_f, t_g = propagation_terms(vf, k1, k2)
+    g = t_s * np.sqrt(fa) + t_f * fa + t_g * f_log_f(fa)
+    return np.where(f < 0, np.conj(g), g)
 
 
 def cable_propagation_constant(cable: Cable, frequency_hz: np.ndarray | float) -> np.ndarray:

@@ -45,6 +45,7 @@ from dataclasses import dataclass
 from calc.constants import C0_M_PER_S
 from calc.errors import InputError, OutOfRunError
 from calc.run import RunSegment
+from calc.velocity import VF_MIN
 
 # How close to the far end (relative to the run's total delay) still counts
 # as "at the far end" when a reading is converted back and forth in floats.
@@ -71,6 +72,8 @@ def check_vf(vf: float, field: str = "velocity factor") -> float:
         raise InputError(field, f"{vf!r} is not a finite number", "0.66")
     if not 0.0 < vf <= 1.0:
         raise InputError(field, f"velocity factor {vf:g} is outside (0, 1]", "0.66")
+    if vf < VF_MIN:
+        raise InputError(field, f"velocity factor {vf:g} is below {VF_MIN:g}", "0.66")
     return float(vf)
 
 

@@ -18,6 +18,12 @@ from dataclasses import dataclass
 from calc.constants import C0_M_PER_S
 from calc.errors import InputError
 
+#: Slowest velocity factor accepted. Cables run from about 0.4 (power cable
+#: with semiconducting screens) to 1; helical delay lines go lower, but below
+#: this the derived quantities (eps_r, delay per length) stop being useful
+#: numbers (common practice).
+VF_MIN = 0.01
+
 #: Names of the conventions accepted by :func:`velocity_from`.
 CONVENTIONS = (
     "vf",
@@ -45,6 +51,8 @@ def from_vf(vf: float, field: str = "velocity factor") -> Velocity:
     """Build a :class:`Velocity` from a velocity factor in (0, 1]."""
     if not (math.isfinite(vf) and 0.0 < vf <= 1.0):
         raise InputError(field, f"velocity factor {vf:g} is outside (0, 1]", "0.66")
+    if vf < VF_MIN:
+        raise InputError(field, f"velocity factor {vf:g} is below {VF_MIN:g}", "0.66")
     v = vf * C0_M_PER_S
     return Velocity(
         vf=vf,

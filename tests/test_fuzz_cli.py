@@ -4,7 +4,8 @@ and with --json exactly one JSON object on stdout) or the tool's own one-line
 error (exit 2, nothing on stdout). Exit 1 (an internal fault) or an escaping
 exception fails the test.
 
-Examples per command: 1,000 in CI (profile "ci", the default); set
+Examples per command: 1,000 in CI (profile "ci", chosen when CI is set, as
+.ci/run's environment has it), 100 on a developer's run (profile "dev"); set
 HALFTRIP_FUZZ_PROFILE=long for 10,000.
 """
 
@@ -24,9 +25,11 @@ from tui.cli import build_parser, main
 
 settings.register_profile("ci", max_examples=1000, deadline=None,
                           suppress_health_check=[HealthCheck.too_slow])
+settings.register_profile("dev", max_examples=100, deadline=None,
+                          suppress_health_check=[HealthCheck.too_slow])
 settings.register_profile("long", max_examples=10_000, deadline=None,
                           suppress_health_check=[HealthCheck.too_slow])
-PROFILE = os.environ.get("HALFTRIP_FUZZ_PROFILE", "ci")
+PROFILE = os.environ.get("HALFTRIP_FUZZ_PROFILE", "ci" if os.environ.get("CI") else "dev")
 
 # A valid invocation of every command: the fuzzer replaces one value in it.
 BASELINES: dict[str, list[str]] = {

@@ -76,7 +76,7 @@ REFUSED = [
     ("3 MHz", "impedance", "not a impedance"),
     ("1.2", "vf", "at most 1"),
     ("120 %", "nvp", "at most 100 %"),
-    ("0", "vf", "greater than 0"),
+    ("0", "vf", "at least 0.01"),
     ("0.5", "eps_r", "at least 1"),
     ("60 %", "tolerance", "at most 50 %"),
     ("__import__('os')", "time", "cannot read"),

@@ -23,7 +23,7 @@ from textual.reactive import reactive
 from textual.widgets import ContentSwitcher, Footer
 
 from tui.panels import PanelSpec, discover
-from tui.prefs import Preferences, changed, load_preferences, save_preferences, with_section
+from tui.prefs import Preferences, changed, load_preferences, update_preferences, with_section
 from tui.widgets.panel_bar import PanelBar
 
 #: Keys of the app itself (panel keys are added from the panel modules).
@@ -93,7 +93,7 @@ class HalftripApp(App[int]):
 
     def _after_first_frame(self) -> None:
         if self._start_panel:
-            self._focus_in(self.query_one(f"#{self._start_panel}"))
+            self.focus_first_field(self.query_one(f"#{self._start_panel}"))
         for problem in self.prefs.problems:
             self.notify(problem, title="Preferences", severity="warning", timeout=10)
         self._load_core()
@@ -154,10 +154,14 @@ class HalftripApp(App[int]):
         widget = await self.panel(name)
         self.query_one("#panels", ContentSwitcher).current = name
         self.query_one(PanelBar).current = name
-        self.call_after_refresh(self._focus_in, widget)
+        self.call_after_refresh(self.focus_first_field, widget)
 
-    def _focus_in(self, widget) -> None:
-        first = next((w for w in widget.query("*") if w.focusable), None)
+    def focus_first_field(self, widget) -> None:
+        """The cursor into the panel's first shown text field (else its first stop)."""
+        from textual.widgets import Input
+
+        shown = [w for w in widget.query("*") if w.focusable and w.is_on_screen]
+        first = next((w for w in shown if isinstance(w, Input)), shown[0] if shown else None)
         if first is not None:
             first.focus()
 
@@ -187,26 +191,30 @@ class HalftripApp(App[int]):
                     else "Mark removed; the cable's own cautions still apply", timeout=3)
 
     # ------------------------------------------------------------ preferences
-    def set_prefs(self, prefs: Preferences) -> None:
-        """Keep ``prefs`` and write them; a failure is shown, never raised."""
-        self.prefs = prefs
-        problem = save_preferences(prefs, self.prefs_path)
-        if problem:
+    def change_prefs(self, sections: dict[str, dict] | None = None, **typed) -> None:
+        """Change preferences and write just those to the file (see
+        :func:`tui.prefs.update_preferences`); a failure is shown, never raised."""
+        prefs, problem = update_preferences(self.prefs_path, sections, **typed)
+        if problem:  # keep the change for this session anyway
+            prefs = changed(self.prefs, **typed)
+            for name, values in (sections or {}).items():
+                prefs = with_section(prefs, name, **values)
             self.notify(f"Preferences not saved: {problem}", severity="warning")
+        self.prefs = prefs
 
     def update_section(self, name: str, **values) -> None:
         """Set keys in module ``name``'s table of the preferences and save."""
-        self.set_prefs(with_section(self.prefs, name, **values))
+        self.change_prefs({name: values})
 
     def remember_cable(self, cable_id: str) -> None:
         """The cable last chosen anywhere (new fields start with it)."""
         if cable_id and cable_id != self.prefs.last_cable:
-            self.set_prefs(changed(self.prefs, last_cable=cable_id))
+            self.change_prefs(last_cable=cable_id)
 
     def set_units(self, units: str, fraction: int | None = None) -> None:
         """Switch every shown length to ``units`` at once, and remember it."""
         fraction = fraction or self.prefs.fraction
-        self.set_prefs(changed(self.prefs, units=units, fraction=fraction))
+        self.change_prefs(units=units, fraction=fraction)
         self.unit_system = (units, fraction)
 
     def action_switch_units(self) -> None:
@@ -222,7 +230,7 @@ class HalftripApp(App[int]):
 
     def watch_theme(self, theme: str) -> None:
         if self.is_mounted and theme != self.prefs.theme:
-            self.set_prefs(changed(self.prefs, theme=theme))
+            self.change_prefs(theme=theme)
 
     # ------------------------------------------------------------- help, keys
     def action_help(self) -> None:
@@ -232,9 +240,20 @@ class HalftripApp(App[int]):
             self.push_screen(HelpScreen(key_table(self)))
 
     def action_back_out(self) -> None:
-        """Escape: from a field back to the panel bar (modal screens close themselves)."""
+        """Escape, one step out each time: from a field to the panel's tabs (if it
+        has them), from there to the panel bar. Dialogs close themselves."""
+        from textual.widgets import Tabs
+
         bar = self.query_one(PanelBar)
-        if self.focused is not bar:
+        focused = self.focused
+        panel = self.query_one("#panels", ContentSwitcher).visible_content
+        if focused is None or focused is bar or panel is None:
+            bar.focus()
+            return
+        tabs = next(iter(panel.query(Tabs)), None)
+        if tabs is not None and focused is not tabs and panel in focused.ancestors:
+            tabs.focus()
+        else:
             bar.focus()
 
     def get_system_commands(self, screen):

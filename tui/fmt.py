@@ -132,3 +132,40 @@ def table(rows: list[tuple[str, ...]], right: tuple[int, ...] = (),
 def vswr(x: float) -> str:
     """A VSWR to two decimals (``"1.13"``), ``"infinite"`` for a total reflection."""
     return "infinite" if x is None or not math.isfinite(x) else f"{x:.2f}"
+
+
+def text_plot(x, y, width: int = 72, height: int = 11, x_label=None) -> list[str]:
+    """A trace as plain text lines: ``height`` rows of ``width`` columns, a level axis
+    on the left and ``x_label(value)`` under the ends and the middle of the x axis.
+
+    Each column shows the range of levels that fall in it, so a step shows as
+    a vertical run and nothing between samples is lost.
+    """
+    import numpy as np
+
+    x = np.asarray(x, dtype=float)
+    y = np.asarray(y, dtype=float)
+    lo, hi = min(float(np.min(y)), 0.0), max(float(np.max(y)), 0.0)
+    pad = max(0.05 * (hi - lo), 0.01)
+    lo, hi = lo - pad, hi + pad
+    cols = np.clip(((x - x[0]) / max(x[-1] - x[0], 1e-300) * (width - 1)).astype(int), 0,
+                   width - 1)
+    top = np.full(width, -np.inf)
+    bottom = np.full(width, np.inf)
+    np.maximum.at(top, cols, y)
+    np.minimum.at(bottom, cols, y)
+    row = lambda v: int(round((hi - v) / (hi - lo) * (height - 1)))  # noqa: E731
+    grid = [[" "] * width for _ in range(height)]
+    zero = row(0.0)
+    grid[zero] = ["-"] * width
+    for c in range(width):
+        if np.isfinite(top[c]):
+            for r in range(row(top[c]), row(bottom[c]) + 1):
+                grid[r][c] = "*"
+    labels = {0: f"{hi:+.2f}", zero: " 0", height - 1: f"{lo:+.2f}"}
+    lines = [f"{labels.get(r, ''):>6} |" + "".join(grid[r]) for r in range(height)]
+    if x_label is not None:
+        left, mid, right = x_label(x[0]), x_label(0.5 * (x[0] + x[-1])), x_label(x[-1])
+        gap = max(1, (width - len(left) - len(mid) - len(right)) // 2)
+        lines.append(" " * 8 + left + " " * gap + mid + " " * gap + right)
+    return lines

@@ -196,3 +196,19 @@ def save_preferences(prefs: Preferences, path: Path | None = None) -> str | None
     except OSError as exc:
         return f"cannot write {path} ({exc})"
     return None
+
+
+def update_preferences(path: Path | None = None, sections: dict[str, dict] | None = None,
+                       **typed) -> tuple[Preferences, str | None]:
+    """Change some preferences in the file and nothing else.
+
+    The file is read again first, so keys and tables written meanwhile by
+    another module (the safety notice's ``[safety]`` table) or another
+    halftrip are kept. Returns the preferences now in force and None, or
+    the preferences (changed in memory only) and why the file was not written.
+    """
+    current = load_preferences(path)
+    new = changed(current, **typed)
+    for name, values in (sections or {}).items():
+        new = with_section(new, name, **values)
+    return new, save_preferences(new, path)

@@ -54,6 +54,7 @@ class LiveForm(Vertical):
         super().__init__(id=id, classes=classes)
         self.last_result = None
         self.last_error: InputError | None = None
+        self._hazards: tuple[str, ...] = ()
 
     # -- for subclasses ---------------------------------------------------
     def compute(self, values: dict[str, object]):
@@ -91,6 +92,11 @@ class LiveForm(Vertical):
     def on_mount(self) -> None:
         self.watch(self.app, "core_ready", self._core_ready_changed)
         self.watch(self.app, "unit_system", self._units_changed, init=False)
+        from textual.widgets import TabbedContent
+
+        tabs = next((a for a in self.ancestors if isinstance(a, TabbedContent)), None)
+        if tabs is not None:  # the panel's warning line follows the tab on show
+            self.watch(tabs, "active", lambda _active: self._set_hazards(), init=False)
 
     def _core_ready_changed(self, ready: bool) -> None:
         if ready:
@@ -170,23 +176,33 @@ class LiveForm(Vertical):
         self.last_error = None
         self.last_result = result
         view.show(self.describe(result))
-        self._set_hazards(self.hazards(result))
+        self._hazards = tuple(self.hazards(result))
+        self._set_hazards()
 
     def _owner(self, fields: list[Field], exc: InputError) -> Field | None:
-        """The field an error belongs to: by label or name, or through
-        ``ERROR_FIELDS`` (the core's names for the quantity, longest prefix first)."""
-        name = exc.field
+        """The field an error names: by label; through ``ERROR_FIELDS`` (the core's
+        name for the quantity, longest prefix first); or by the CLI option the
+        core named (``--rise-time`` -> the field whose name ends in ``rise-time``)."""
+        name = exc.field or ""
         for alias in sorted(self.ERROR_FIELDS, key=len, reverse=True):
             if name == alias or name.startswith(alias + " "):
                 name = self.ERROR_FIELDS[alias]
                 break
-        return next((f for f in fields if name in (f.label, f.field_name)), None)
+        key = name.split()[0].lstrip("-") if name else ""
+        for f in fields:
+            if name in (f.label, f.field_name) or (key and (f.field_name == key
+                                                            or f.field_name.endswith("-" + key))):
+                return f
+        return None
 
-    def _set_hazards(self, tags) -> None:
+    def _set_hazards(self) -> None:
+        """Show this form's hazards on the panel's warning line, if this form is shown."""
         from tui.widgets.warning_line import WarningLine
 
         for node in self.ancestors_with_self:
-            lines = node.query_children(WarningLine) if hasattr(node, "query_children") else []
+            lines = node.query_children(WarningLine)
             if lines:
-                lines.first().set_hazards(tags)
+                lines.first().set_hazards(self._hazards)
+                return
+            if not node.display:  # a tab not shown: its hazards wait for the tab
                 return

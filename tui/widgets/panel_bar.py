@@ -26,6 +26,7 @@ class PanelBar(Horizontal, can_focus=True):
         Binding("left", "step(-1)", "Previous panel", id="bar.previous", show=False),
         Binding("right", "step(1)", "Next panel", id="bar.next", show=False),
         Binding("enter,down", "enter", "Into panel", id="bar.enter", show=False),
+        *[Binding(str(n), f"mode({n - 1})", "", show=False) for n in range(1, 10)],
     ]
 
     current: reactive[str | None] = reactive(None)
@@ -72,6 +73,13 @@ class PanelBar(Horizontal, can_focus=True):
         i = names.index(self.current) if self.current in names else 0
         self.post_message(self.Selected(names[(i + step) % len(names)]))
         self.call_after_refresh(self.focus)
+
+    def action_mode(self, index: int) -> None:
+        """Digits on the bar pick a tab of the shown panel (panels with tabs
+        have ``action_mode(index)``)."""
+        panel = self.app.query_one("#panels").visible_content
+        if panel is not None and hasattr(panel, "action_mode"):
+            panel.action_mode(index)
 
     def action_enter(self) -> None:
         if self.current:

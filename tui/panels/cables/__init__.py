@@ -28,7 +28,7 @@ class Panel(Vertical):
     """The catalog table with a filter, the chosen cable in full below it."""
 
     BINDINGS = [
-        Binding("a", "new_cable", "New cable", id="cables.new"),
+        Binding("ctrl+n,a", "new_cable", "New cable", id="cables.new"),
         Binding("m", "measured_vf", "Save measured VF", id="cables.measured"),
         Binding("n", "copy_cable", "Copy as new", id="cables.copy"),
     ]
@@ -50,9 +50,7 @@ class Panel(Vertical):
     def _refill(self, ready: bool = True) -> None:
         table = self.query_one(CableTable)
         if self.app.catalog is None:
-            table.loading = True
             return
-        table.loading = False
         table.fill(self.app.catalog, self.query_one("#cables-filter", Input).value)
 
     def on_input_changed(self, event: Input.Changed) -> None:

@@ -1,0 +1,1012 @@
+"""Whole-run prediction: what a reflectometer at the near end of a run shows.
+
+The run is a list of :class:`Segment` (length, Z0, VF, loss k1 sqrt(f) + k2 f
+as in the catalog), optional :class:`Lump` discontinuities between segments
+(series R or L, shunt C: a connector, a crushed spot), a load
+(:class:`calc.loads.Load`) and the instrument (source impedance, and a step
+with a rise time or a pulse of a width).
+
+How the waveform is made (:func:`simulate`):
+
+1. The run is cascaded in the frequency domain, from the load back to the
+   instrument, vectorised over frequency with numpy (one reflection
+   recursion per junction; consecutive segments of one impedance share one
+   exponential). The result is the reflection coefficient seen by the
+   instrument, referenced to its own source impedance, which includes every
+   re-reflection between the junctions and the source (:func:`reflection_spectrum`).
+   Line loss is causal (:func:`calc.cable.propagation_constant`).
+2. The instrument's edge (a Gaussian-filtered step of the given 10-90 %
+   rise time, or a pulse: the step minus the step delayed by the width) and
+   a short pre-trigger delay multiply the spectrum; an inverse real FFT
+   gives the impulse response and a running (trapezoid) sum the step
+   response. The true 0 Hz value is in every grid (an open is +1 at DC).
+3. Nothing wraps: the FFT period holds the displayed window plus every
+   bounce the expansion below lists, and a stretch after them that must stay
+   quiet (within :data:`QUIET_LEVEL`); if it does not, the period doubles.
+   A skin-effect loss makes a far reflection creep toward its final level
+   for far longer than any display window; that slow part is carried by a
+   second, coarse grid with a 16 times longer period: the spectrum is split
+   by a smooth Gaussian low-pass, the low part is transformed on the coarse
+   grid and interpolated, the high part on the fine grid.
+4. The distance axis maps each time through the run's cumulative round-trip
+   delays, segment by segment (beyond the end, at the last segment's speed).
+
+The individual arrivals (:class:`Arrival`) come from a bounded bounce
+(lattice) expansion: every path a wave can take through the junctions,
+largest first, until paths fall below a size cut-off.
+"""
+
+from __future__ import annotations
+
+import heapq
+import math
+from collections.abc import Sequence
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from calc.cable import f_log_f, propagation_terms
+from calc.constants import C0_M_PER_S
+from calc.errors import InputError
+from calc.loads import Load, component_kind, reflection_polynomials
+from calc.parse import parse
+
+#: Largest number of output samples (time, distance and level arrays).
+MAX_POINTS = 1 << 20
+#: Smallest number of output samples.
+MIN_POINTS = 256
+#: Output samples when none are asked for (more when a short rise time needs them).
+DEFAULT_POINTS = 4096
+#: Most samples chosen automatically to honour a requested rise time.
+MAX_AUTO_POINTS = 1 << 18
+#: Largest FFT: 2**21 samples keep each complex spectrum array at 16 MB, so a
+#: prediction stays within a few hundred MB at the very most.
+MAX_FFT = 1 << 21
+#: Arrivals smaller than this (fraction of the incident step) are not listed.
+ARRIVAL_CUTOFF = 1e-3
+#: The stretch of the fine period after everything must move less than this.
+QUIET_LEVEL = 2e-4
+MAX_ARRIVALS = 100
+MAX_EXPANSIONS = 1000
+#: The coarse grid's period, in fine periods (see the module notes).
+LOW_BAND_PERIODS = 16
+#: The crossover low-pass between the grids spreads over window / this (in time).
+CROSSOVER_PER_WINDOW = 64.0
+#: Gaussian step: the 10-90 % rise time is 2 sqrt(2) erfinv(0.8) sigma.
+RISE_PER_SIGMA = 2.0 * math.sqrt(2.0) * 0.9061938024368232
+#: The edge is never sharper than this many samples (finer would alias).
+MIN_RISE_SAMPLES = 4.0
+LUMP_KINDS = ("series_r", "series_l", "shunt_c")
+RUN_EXAMPLE = "10 m:rg58, 20 m:rg213"
+
+
+@dataclass(frozen=True)
+class Segment:
+    """One length of line: Z0, VF and the catalog's loss model (dB/100 m)."""
+
+    length_m: float
+    z0_ohm: float
+    vf: float
+    atten_k1: float | None = None  # dB / 100 m / sqrt(MHz)
+    atten_k2: float | None = None  # dB / 100 m / MHz
+    label: str = ""
+
+    @classmethod
+    def from_run_segment(cls, run_segment) -> Segment:
+        """From a :class:`calc.run.RunSegment` (a length of a catalog cable)."""
+        c = run_segment.cable
+        return cls(run_segment.length_m, c.z0_ohm, c.vf, c.atten_k1, c.atten_k2, label=c.id)
+
+    @property
+    def delay_s(self) -> float:
+        """One-way delay."""
+        return self.length_m / (self.vf * C0_M_PER_S)
+
+    @property
+    def lossless(self) -> bool:
+        return not (self.atten_k1 or self.atten_k2)
+
+
+@dataclass(frozen=True)
+class Lump:
+    """A lumped discontinuity after segment ``after_segment`` (0-based).
+
+    ``kind``: ``"series_r"`` (ohm), ``"series_l"`` (H) or ``"shunt_c"`` (F).
+    After the last segment it sits between the run and the load.
+    """
+
+    kind: str
+    value: float
+    after_segment: int
+
+
+@dataclass(frozen=True)
+class Arrival:
+    """One bounce path back to the instrument.
+
+    ``time_s`` is the round-trip time of the path and ``distance_m`` where the
+    trace's distance axis puts it (a re-reflection shows beyond the place
+    that made it). ``size`` is the level the path adds once its edge has
+    passed (reactive parts settled; line loss as the lossy step stands 8
+    rise times after the arrival, or at the end of a pulse). ``start`` is the
+    dip or bump the trace shows first, beyond that settled level (each
+    reactive part's own excursion for the instrument's edge, multiplied along
+    the path), or ``size`` when there is none (``None`` means the same).
+    Both are estimates for reading the trace; the waveform itself is exact.
+    ``path`` names the reflections and the transmissions through junctions
+    (joints between cables of one impedance and no lump are not named).
+    """
+
+    time_s: float
+    distance_m: float
+    size: float
+    path: str
+    start: float | None = None
+
+
+@dataclass(frozen=True, eq=False)
+class Prediction:
+    """The predicted trace: level (reflected voltage / incident step) against time and distance.
+
+    ``warnings`` holds codes for the front end: ``"rise-time-limited"`` (the
+    grid could not show the rise time asked for; ``rise_time_s`` is what was
+    used), ``"tail-folds"`` (the run rings longer than the largest window
+    holds), ``"arrivals-truncated"`` (the bounce list was cut at its cap).
+    """
+
+    time_s: np.ndarray
+    distance_m: np.ndarray
+    level: np.ndarray
+    arrivals: tuple[Arrival, ...]
+    rise_time_s: float = math.nan
+    pulse_width_s: float | None = None
+    source_z_ohm: float = math.nan
+    round_trip_s: float = math.nan
+    span_s: float = math.nan
+    frequency_step_hz: float = math.nan
+    n_fft: int = 0
+    warnings: tuple[str, ...] = field(default=())
+
+
+LUMP_EXAMPLE = "2: 3 pF"
+_LUMP_KIND = {"resistance": "series_r", "inductance": "series_l", "capacitance": "shunt_c"}
+
+
+def parse_lump(text: str, n_segments: int, field: str = "--lump") -> Lump:
+    """``"AFTER: VALUE"``: a lump after segment AFTER (1-based, as people count).
+
+    The unit says what it is: ohm a series resistance, H a series inductance,
+    F a capacitance across the line (``"2: 3 pF"``, ``"1: 5 nH"``, ``"3: 0.2 ohm"``).
+    """
+    if not isinstance(text, str) or ":" not in text:
+        raise InputError(field, f"cannot read {text!r}; give AFTER_SEGMENT: VALUE", LUMP_EXAMPLE)
+    where, value = (p.strip() for p in text.split(":", 1))
+    if not where.isdigit() or not 1 <= int(where) <= n_segments:
+        raise InputError(field, f"{where!r} is not a segment of this run (1 to {n_segments})",
+                         LUMP_EXAMPLE)
+    kind = component_kind(value)
+    return Lump(_LUMP_KIND[kind], parse(value, field, kind), int(where) - 1)
+
+
+# -- rational two-port pieces ---------------------------------------------
+def _pm(a, b):
+    return np.polymul(a, b)
+
+
+def _pa(*ps):
+    out = np.array([0.0])
+    for p in ps:
+        out = np.polyadd(out, p)
+    return out
+
+
+def _lump_abcd(lump: Lump) -> tuple:
+    one, zero = np.array([1.0]), np.array([0.0])
+    if lump.kind == "series_r":
+        return one, np.array([lump.value]), zero, one
+    if lump.kind == "series_l":
+        return one, np.array([lump.value, 0.0]), zero, one
+    return one, zero, np.array([lump.value, 0.0]), one  # shunt_c
+
+
+def _abcd_chain(lumps: Sequence[Lump]) -> tuple:
+    a, b, c, d = np.array([1.0]), np.array([0.0]), np.array([0.0]), np.array([1.0])
+    for lump in lumps:
+        a2, b2, c2, d2 = _lump_abcd(lump)
+        a, b, c, d = (_pa(_pm(a, a2), _pm(b, c2)), _pa(_pm(a, b2), _pm(b, d2)),
+                      _pa(_pm(c, a2), _pm(d, c2)), _pa(_pm(c, b2), _pm(d, d2)))
+    return a, b, c, d
+
+
+class _Rational:
+    """F(s) = P(s)/Q(s) with its DC value, poles and step-response estimates."""
+
+    @classmethod
+    def of(cls, value: float) -> _Rational:
+        """A constant (frequency-independent) factor."""
+        f = cls.__new__(cls)
+        f.num, f.den = np.array([float(value)]), np.array([1.0])
+        f.constant, f.zero = True, value == 0.0
+        f.dc = f.high = float(value)
+        f.poles, f.residues = np.array([]), np.array([])
+        return f
+
+    def __init__(self, num, den):
+        num = np.trim_zeros(np.atleast_1d(np.asarray(num, dtype=float)), "f")
+        den = np.trim_zeros(np.atleast_1d(np.asarray(den, dtype=float)), "f")
+        self.num = num if num.size else np.array([0.0])
+        self.den = den
+        scale = self.den[0]
+        self.num, self.den = self.num / scale, self.den / scale
+        self.constant = len(self.den) == 1 and len(self.num) == 1
+        self.dc = float(self.num[-1] / self.den[-1]) if self.den[-1] != 0 else math.inf
+        self.zero = len(self.num) == 1 and self.num[0] == 0.0
+        if self.constant or self.zero:
+            self.high, self.poles, self.residues = float(self.num[0]), np.array([]), np.array([])
+            return
+        if len(self.num) == len(self.den):
+            self.high = float(self.num[0])
+            rem = np.polysub(self.num, self.high * self.den)
+        else:
+            self.high, rem = 0.0, self.num
+        poles = np.roots(self.den)
+        # nudge repeated poles apart so simple-pole residues stay finite
+        for i in range(len(poles)):
+            for j in range(i):
+                if abs(poles[i] - poles[j]) <= 1e-7 * abs(poles[i]):
+                    poles[i] *= 1.0 + 1e-6
+        self.poles = poles
+        self.residues = np.array([
+            np.polyval(rem, p) / np.prod([p - q for k, q in enumerate(poles) if k != i])
+            for i, p in enumerate(poles)])
+
+    @property
+    def time_constants_s(self) -> list[float]:
+        return [float(-1.0 / p.real) for p in self.poles if p.real < 0]
+
+    def __call__(self, s: np.ndarray) -> np.ndarray | float:
+        if self.constant or self.zero:
+            return self.high
+        return np.polyval(self.num, s) / np.polyval(self.den, s)
+
+    def step_at(self, t: float) -> float:
+        """Step response at ``t`` (``inf``: the DC value)."""
+        if self.constant or self.zero or math.isinf(t):
+            return self.dc if not (self.constant or self.zero) else self.high
+        r, p = self.residues, self.poles
+        return float((self.high + np.sum(r / p * (np.exp(p * t) - 1.0))).real)
+
+    def ramp_response(self, times_s: np.ndarray, rise_s: float) -> np.ndarray:
+        """Response to a linear ramp from 0 to 1 over ``rise_s`` starting at t = 0."""
+        t = np.asarray(times_s, dtype=float)[:, None]
+        if self.constant or self.zero:
+            return self.high * np.clip(t[:, 0] / rise_s, 0.0, 1.0)
+        p, c = self.poles[None, :], (self.residues / self.poles)[None, :]
+        inside = t <= rise_s
+        tt = np.where(inside, t, rise_s)
+        during = (self.high * tt + np.sum(c * (np.expm1(p * tt) / p - tt), axis=1,
+                                           keepdims=True)) / rise_s
+        after = self.high + np.sum(c * ((np.exp(p * t) - np.exp(p * (t - rise_s))) / (p * rise_s)
+                                        - 1.0), axis=1, keepdims=True)
+        return np.where(inside, during, after).real[:, 0]
+
+    def excursion(self, rise_s: float, settle_s: float) -> float:
+        """The dip or bump beyond the settled level that an edge of ``rise_s`` shows.
+
+        The extreme of the ramp response that lies outside the range from 0
+        to the settled level; the settled level itself when there is none.
+        """
+        final = self.step_at(settle_s)
+        taus = self.time_constants_s or [rise_s]
+        t = np.concatenate([rise_s * np.linspace(0.02, 1.0, 25),
+                            rise_s + np.geomspace(0.01 * min(taus), 10.0 * max(taus), 60)])
+        if math.isfinite(settle_s):
+            t = t[t <= settle_s]
+        y = self.ramp_response(t, rise_s)
+        lo, hi = min(0.0, final), max(0.0, final)
+        outside = np.maximum(y - hi, 0.0) + np.maximum(lo - y, 0.0)
+        i = int(np.argmax(outside))
+        return float(y[i]) if outside[i] > 1e-12 else final
+
+    def edge_peak(self, rise_s: float) -> float:
+        """The largest magnitude of its response to the instrument's edge (ramp of ``rise_s``)."""
+        if self.constant or self.zero:
+            return abs(self.high)
+        taus = self.time_constants_s or [rise_s]
+        t = np.concatenate([rise_s * np.linspace(0.05, 1.0, 20),
+                            rise_s + np.geomspace(0.01 * min(taus), 10.0 * max(taus), 40)])
+        return float(max(np.max(np.abs(self.ramp_response(t, rise_s))), abs(self.dc)))
+
+
+@dataclass
+class _Junction:
+    """Between segment ``index - 1`` (impedance z1) and ``index`` (z2), with lumps."""
+
+    index: int
+    z1: float
+    z2: float
+    lumps: tuple
+    name: str
+    s11: _Rational = None  # from the left, back to the left
+    s22: _Rational = None  # from the right, back to the right
+    t21: _Rational = None  # voltage transmission left -> right
+    t12: _Rational = None
+    terms: tuple | None = None
+
+    def __post_init__(self):
+        z1, z2 = self.z1, self.z2
+        if not self.lumps:
+            total = z1 + z2
+            self.s11, self.s22 = _Rational.of((z2 - z1) / total), _Rational.of((z1 - z2) / total)
+            self.t21, self.t12 = _Rational.of(2.0 * z2 / total), _Rational.of(2.0 * z1 / total)
+            self.terms = None
+            return
+        a, b, c, d = _abcd_chain(self.lumps)
+        # A Z2, B, C Z1 Z2, D Z1: every S-parameter of the junction is built from these four
+        self.terms = (a * z2, b, c * (z1 * z2), d * z1)
+        p, q, r, u = self.terms
+        den = _pa(p, q, r, u)
+        self.s11 = _Rational(_pa(p, q, -r, -u), den)
+        self.s22 = _Rational(_pa(-p, q, -r, u), den)
+        self.t21 = _Rational([2.0 * z2], den)
+        self.t12 = _Rational([2.0 * z1], den)
+
+    def reflect(self, gamma: np.ndarray, s: np.ndarray) -> np.ndarray:
+        """Gamma looking into the junction from the left, given Gamma beyond it on the right.
+
+        .. math:: \\Gamma_{in} = S_{11} + \\frac{T_{21}T_{12}\\Gamma}{1 - S_{22}\\Gamma}
+        """
+        if self.terms is None:
+            s11, s22 = self.s11.high, self.s22.high
+            d = self.t21.high * self.t12.high - s11 * s22
+            return (s11 + d * gamma) / (1.0 - s22 * gamma)
+        p, q, r, u = (np.polyval(t, s) if len(t) > 1 else t[0] for t in self.terms)
+        den, n11, n22 = p + q + r + u, p + q - r - u, q - p - r + u
+        x = den - n22 * gamma
+        return (n11 * x + (4.0 * self.z1 * self.z2) * gamma) / (den * x)
+
+    @property
+    def transparent(self) -> bool:
+        return not self.lumps and self.z1 == self.z2
+
+
+def _junctions(segments: Sequence[Segment], lumps: Sequence[Lump]) -> list[_Junction]:
+    """Junctions 1 .. N-1 between segments (index k sits after segment k-1)."""
+    out = []
+    for k in range(1, len(segments)):
+        here = tuple(lp for lp in lumps if lp.after_segment == k - 1)
+        left, right = segments[k - 1], segments[k]
+        name = f"joint {k}"
+        if left.label or right.label:
+            name += f" ({left.label or '?'}|{right.label or '?'})"
+        out.append(_Junction(k, left.z0_ohm, right.z0_ohm, here, name))
+    return out
+
+
+def _load_factor(load: Load, segments: Sequence[Segment], lumps: Sequence[Lump]) -> _Rational:
+    """Gamma at the end of the last segment: lumps after it, then the load."""
+    z0 = segments[-1].z0_ohm
+    n, d = load.polynomials(z0)
+    end_lumps = [lp for lp in lumps if lp.after_segment == len(segments) - 1]
+    if end_lumps:
+        a, b, c, dd = _abcd_chain(end_lumps)
+        n, d = _pa(_pm(a, n), _pm(b, d)), _pa(_pm(c, n), _pm(dd, d))
+    return _Rational(*reflection_polynomials(n, d, z0))
+
+
+# -- input checks ------------------------------------------------------------
+def _check(segments, load, lumps, source_z_ohm, rise_time_s, pulse_width_s, n_points, span_s):
+    if not segments:
+        raise InputError("--run", "a run needs at least one segment", RUN_EXAMPLE)
+    for i, s in enumerate(segments, start=1):
+        if not (math.isfinite(s.length_m) and s.length_m > 0):
+            raise InputError("--run", f"segment {i} has no length; every segment needs a length "
+                             "above zero", RUN_EXAMPLE)
+        if not (math.isfinite(s.z0_ohm) and s.z0_ohm > 0):
+            raise InputError("--run", f"segment {i}: Z0 must be above zero", RUN_EXAMPLE)
+        if not (0 < s.vf <= 1):
+            raise InputError("--run", f"segment {i}: the velocity factor must be in (0, 1]",
+                             RUN_EXAMPLE)
+        for k in (s.atten_k1, s.atten_k2):
+            if k is not None and not (math.isfinite(k) and k >= 0):
+                raise InputError("--run", f"segment {i}: loss terms must be zero or more",
+                                 RUN_EXAMPLE)
+    for lp in lumps:
+        if lp.kind not in LUMP_KINDS:
+            raise InputError("--lump", f"unknown kind {lp.kind!r} (series_r, series_l, shunt_c)",
+                             "1:2 nH")
+        if not (0 <= lp.after_segment < len(segments)):
+            raise InputError("--lump", f"there is no segment {lp.after_segment + 1} to follow",
+                             "1:2 nH")
+        if not math.isfinite(lp.value) or lp.value < 0 or (lp.value == 0 and lp.kind != "series_r"):
+            raise InputError("--lump", "a lumped value must be positive", "1:2 nH")
+    if not isinstance(load, Load):
+        raise InputError("--load", "not a load", "75 ohm")
+    if not load.has_step_response:
+        raise InputError("--load", "an impedance known at one frequency has no trace; give it "
+                         "as R + L or R || C", "50 ohm + 20 nH")
+    for name, v in (("--source-z", source_z_ohm), ("--rise-time", rise_time_s),
+                    ("--pulse-width", pulse_width_s), ("--span", span_s)):
+        if v is not None and not (math.isfinite(v) and v > 0):
+            raise InputError(name, "must be a positive, finite value",
+                             {"--source-z": "50 ohm"}.get(name, "1 ns"))
+    if n_points is not None:
+        if not isinstance(n_points, int | np.integer) or not (MIN_POINTS <= n_points <= MAX_POINTS):
+            raise InputError("--points", f"the number of points must be a whole number from "
+                             f"{MIN_POINTS} to {MAX_POINTS} (more would exhaust memory)", "16384")
+
+
+# -- the frequency-domain cascade ---------------------------------------------
+class _Grid:
+    """A frequency grid and the basis every line exponent is built on: sqrt f, f, f ln f."""
+
+    def __init__(self, f: np.ndarray):
+        self.f = np.asarray(f, dtype=float)
+        self.s = 2j * math.pi * self.f
+        self.basis = np.stack([np.sqrt(self.f), self.f, f_log_f(self.f)])
+
+
+def _unit_phasor(magnitude: np.ndarray, phase: np.ndarray) -> np.ndarray:
+    """``magnitude * exp(-j phase)``, quickly.
+
+    The phase is reduced to one turn in double precision (exactly enough:
+    |phase| stays far below 2**52 rad), then its cosine and sine are taken in
+    single precision, which numpy vectorises: each factor is good to about
+    2e-7, several times faster than a double-precision complex exponential.
+    """
+    turns = phase * (1.0 / (2.0 * math.pi))
+    turns -= np.rint(turns)
+    angle = (turns * (2.0 * math.pi)).astype(np.float32)
+    out = np.empty(phase.shape, dtype=complex)
+    out.real = magnitude * np.cos(angle)
+    out.imag = magnitude * -np.sin(angle)
+    return out
+
+
+def _line_terms(seg: Segment) -> np.ndarray:
+    """Round trip through ``seg``: 2 gamma l = c . (sqrt f, f, f ln f), three complex c."""
+    return 2.0 * seg.length_m * np.array(propagation_terms(seg.vf, seg.atten_k1, seg.atten_k2))
+
+
+def _line_factors(grid: _Grid, terms: np.ndarray) -> np.ndarray:
+    """exp(-2 gamma l) for each row of ``terms`` (groups x 3), on the grid (groups x f)."""
+    magnitude = np.exp(-(terms.real @ grid.basis))
+    return _unit_phasor(magnitude, terms.imag @ grid.basis)
+
+
+def _groups(segments, junctions) -> list[tuple[np.ndarray, object]]:
+    """Runs of segments between junctions that reflect: (summed round-trip terms, junction).
+
+    Listed from the load back; the junction is the one at the group's near
+    end (None for the group that starts at the instrument).
+    """
+    out, acc = [], np.zeros(3, dtype=complex)
+    for k in range(len(segments) - 1, -1, -1):
+        acc = acc + _line_terms(segments[k])
+        j = junctions[k - 1] if k > 0 else None
+        if j is not None and j.transparent:
+            continue
+        out.append((acc, j))
+        acc = np.zeros(3, dtype=complex)
+    return out
+
+
+def _cascade(grid: _Grid, segments, junctions, load_factor: _Rational, source_z: float):
+    """Gamma seen by the instrument, referenced to its source impedance."""
+    groups = _groups(segments, junctions)
+    factors = _line_factors(grid, np.array([g[0] for g in groups]))
+    gamma = load_factor(grid.s)
+    for (_, j), factor in zip(groups, factors, strict=True):
+        gamma = factor * gamma
+        if j is not None:
+            gamma = j.reflect(gamma, grid.s)
+    z0 = segments[0].z0_ohm
+    r = (z0 - source_z) / (z0 + source_z)
+    if r == 0.0:
+        return gamma
+    return r + (1.0 - r * r) * gamma / (1.0 + r * gamma)
+
+
+def reflection_spectrum(segments: Sequence[Segment], load: Load, frequency_hz: np.ndarray,
+                        lumps: Sequence[Lump] = (), source_z_ohm: float | None = None
+                        ) -> np.ndarray:
+    """The run's reflection coefficient at the instrument, at ``frequency_hz`` (>= 0).
+
+    Referenced to ``source_z_ohm`` (default: the first segment's Z0). This is
+    what an analyser with that reference impedance reads at the near end.
+    """
+    _check(segments, load, lumps, source_z_ohm, None, None, None, None)
+    zs = segments[0].z0_ohm if source_z_ohm is None else source_z_ohm
+    grid = _Grid(np.asarray(frequency_hz, dtype=float))
+    return _cascade(grid, segments, _junctions(segments, lumps), _load_factor(load, segments, lumps),
+                    zs)
+
+
+def distance_from_round_trip(time_s: np.ndarray | float, segments: Sequence[Segment]) -> np.ndarray:
+    """The one-way distance a round-trip time maps to, segment by segment.
+
+    Before 0 and beyond the run's end the first and last segments' speeds carry on.
+    """
+    t = np.asarray(time_s, dtype=float)
+    rt = np.concatenate([[0.0], np.cumsum([2.0 * s.delay_s for s in segments])])
+    dist = np.concatenate([[0.0], np.cumsum([s.length_m for s in segments])])
+    v0 = segments[0].vf * C0_M_PER_S
+    v1 = segments[-1].vf * C0_M_PER_S
+    d = np.interp(t, rt, dist)
+    d = np.where(t < 0, t * v0 / 2.0, d)
+    return np.where(t > rt[-1], dist[-1] + (t - rt[-1]) * v1 / 2.0, d)
+
+
+# -- the bounce expansion -------------------------------------------------------
+@dataclass
+class _Path:
+    """A bounce path back at the instrument."""
+
+    time_s: float
+    bound: float  # its rating: power-wave magnitudes, reactive parts by their edge response
+    const: float  # product of its frequency-independent factors
+    reactive: tuple  # its frequency-dependent factors (_Rational)
+    loss: tuple  # (skin k, dielectric a, dielectric phase g) summed over its line lengths
+    events: tuple | None  # linked list (("R" | "T" | "S", junction index), rest)
+
+    def dc(self, settle_s: float = math.inf) -> float:
+        """Its level once reactive parts have settled (or at ``settle_s``), without loss."""
+        return self.const * math.prod(f.step_at(settle_s) for f in self.reactive)
+
+
+@dataclass
+class _Bounces:
+    paths: list  # _Path, in the order found
+    truncated: bool
+    last_time_s: float  # latest arrival found above the cut-off
+
+
+def _power_scale(z_from: float, z_to: float) -> float:
+    """Voltage-wave transmission -> power-wave magnitude factor."""
+    return math.sqrt(z_from / z_to)
+
+
+def _one_way_loss(seg: Segment) -> tuple[float, float, float]:
+    t_s, t_f, t_g = propagation_terms(seg.vf, seg.atten_k1, seg.atten_k2)
+    return (t_s.real * seg.length_m, t_f.real * seg.length_m, t_g.imag * seg.length_m)
+
+
+def _hops(segments, junctions):
+    """Where a wave in each segment next meets something, skipping transparent joints.
+
+    ``right[i]``: (index of the junction it meets, 0-based segment it arrives
+    in, delay, loss) for a wave going away from the instrument in segment i;
+    ``left[i]`` the same toward the instrument (junction 0 is the instrument).
+    """
+    n = len(segments)
+    one = [(s.delay_s, _one_way_loss(s)) for s in segments]
+
+    def add(acc, k):
+        delay, loss = one[k]
+        return acc[0] + delay, tuple(x + y for x, y in zip(acc[1], loss, strict=True))
+
+    right, left = [], []
+    for i in range(n):
+        acc, k = (0.0, (0.0, 0.0, 0.0)), i
+        while True:
+            acc = add(acc, k)
+            if k == n - 1 or not junctions[k].transparent:
+                break
+            k += 1
+        right.append((k + 1, k, acc[0], acc[1]))
+        acc, k = (0.0, (0.0, 0.0, 0.0)), i
+        while True:
+            acc = add(acc, k)
+            if k == 0 or not junctions[k - 1].transparent:
+                break
+            k -= 1
+        left.append((k, k, acc[0], acc[1]))
+    return right, left
+
+
+def _expand(segments, junctions, load_factor: _Rational, source_z: float, rise_s: float,
+            horizon_s: float) -> _Bounces:
+    """Bounce paths above :data:`ARRIVAL_CUTOFF`, largest first, within ``horizon_s``.
+
+    Best-first over the tree of reflections and transmissions at every
+    junction (transparent joints are crossed in one hop). A branch is rated
+    by the product of its factors' power-wave magnitudes: each at most 1 for
+    a passive junction, and a reactive part rated by its largest response to
+    the instrument's edge (exact for one reactive part, an estimate for
+    several). At most :data:`MAX_EXPANSIONS` branches are followed.
+    """
+    n = len(segments)
+    z0 = segments[0].z0_ohm
+    r_in = (z0 - source_z) / (z0 + source_z)  # from the instrument, at its port
+    r_src = -r_in  # from the line, back into the line
+    t_in, t_out = 1.0 + r_in, 1.0 + r_src
+    right, left = _hops(segments, junctions)
+
+    def move(factor, scale, seg, direction, event):
+        """(rating, constant factor, reactive factor or None, next segment, direction, event)."""
+        if not isinstance(factor, _Rational):
+            return (abs(factor) * scale, float(factor), None, seg, direction, event)
+        if factor.constant or factor.zero:
+            return (abs(factor.high) * scale, float(factor.high), None, seg, direction, event)
+        return (factor.edge_peak(rise_s) * scale, 1.0, factor, seg, direction, event)
+
+    # what a wave in each segment, going each way, meets next: delay, loss, moves, arrival
+    table = {+1: [], -1: []}
+    for i in range(n):
+        junction, arrive, delay, loss = right[i]
+        if junction == n:
+            moves = [move(load_factor, 1.0, arrive, -1, ("R", n))]
+        else:
+            j = junctions[junction - 1]
+            moves = [move(j.s11, 1.0, arrive, -1, ("R", junction)),
+                     move(j.t21, _power_scale(j.z1, j.z2), arrive + 1, +1, ("T", junction))]
+        table[+1].append((delay, loss, [m for m in moves if m[0] > 0], False))
+        junction, arrive, delay, loss = left[i]
+        if junction == 0:
+            moves = [move(r_src, 1.0, 0, +1, ("S", 0))] if r_src != 0.0 else []
+        else:
+            j = junctions[junction - 1]
+            moves = [move(j.t12, _power_scale(j.z2, j.z1), arrive - 1, -1, ("T", junction)),
+                     move(j.s22, 1.0, arrive, +1, ("R", junction))]
+        table[-1].append((delay, loss, [m for m in moves if m[0] > 0], junction == 0))
+    out_scale = abs(t_out) * _power_scale(z0, source_z)
+    paths: list[_Path] = []
+    if r_in != 0.0:
+        paths.append(_Path(0.0, abs(r_in), r_in, (), (0.0, 0.0, 0.0), (("R", 0), None)))
+    launch = abs(t_in) * _power_scale(source_z, z0)
+    heap = [(-launch, 0, 0, +1, 0.0, t_in, (), 0.0, 0.0, 0.0, None)]
+    counter = 0
+    last = 0.0
+    cutoff = ARRIVAL_CUTOFF
+    push, pop = heapq.heappush, heapq.heappop
+    expansions = 0
+    while heap and expansions < MAX_EXPANSIONS:
+        expansions += 1
+        nb, _, seg, direction, time, const, reactive, k, a, g, events = pop(heap)
+        delay, loss, moves, arrives = table[direction][seg]
+        time += delay
+        k, a, g = k + loss[0], a + loss[1], g + loss[2]
+        if arrives:
+            paths.append(_Path(time, -nb * out_scale, const * t_out, reactive, (k, a, g),
+                               events))
+            last = max(last, time)
+        if time > horizon_s:
+            continue
+        for rating, c, factor, nseg, ndir, event in moves:
+            bound = -nb * rating
+            if bound < cutoff:
+                continue
+            counter += 1
+            push(heap, (-bound, counter, nseg, ndir, time, const * c,
+                        reactive if factor is None else reactive + (factor,), k, a, g,
+                        (event, events)))
+    return _Bounces(paths, bool(heap), last)
+
+
+def _path_text(events, names: dict, n_segments: int) -> str:
+    """Words for a path; ``events`` is a linked list ``(event, rest)``, newest first.
+
+    ``names`` maps junction index to its name."""
+    chain = []
+    while events is not None:
+        event, events = events
+        chain.append(event)
+    events = chain[::-1]
+    words: list[str] = []
+    run: list[int] = []
+
+    def flush():
+        if not run:
+            return
+        if len(run) == 1:
+            words.append(f"through joint {run[0]}")
+        elif all(abs(b - a) == 1 for a, b in zip(run, run[1:], strict=False)):
+            words.append(f"through joints {run[0]}-{run[-1]}")
+        else:
+            words.append("through joints " + ", ".join(str(x) for x in run))
+        run.clear()
+
+    for code, idx in events:
+        if code == "T":
+            run.append(idx)
+            continue
+        flush()
+        if code == "S":
+            words.append("re-reflect at the instrument")
+        elif idx == 0:
+            words.append("reflect at the instrument port")
+        elif idx == n_segments:
+            words.append("reflect at the load")
+        else:
+            words.append(f"reflect at {names[idx]}")
+    flush()
+    return " > ".join(words)
+
+
+def _lossy_steps(loss_terms: list, times_s: Sequence[float], rise_s: float) -> np.ndarray:
+    """Step response of each path's line loss (delay removed), at each of ``times_s``.
+
+    ``loss_terms``: (skin k, dielectric a, dielectric phase g) per path, so that
+    the path's loss is ``exp(-((1+j) k sqrt(f) + a f + j g f ln(f/f_ref)))``,
+    seen through the instrument's Gaussian edge. The response is causal, so
+
+    .. math:: s(t) = \\frac{2}{\\pi}\\int_0^\\infty \\mathrm{Re}\\,H(\\omega)
+              \\frac{\\sin\\omega t}{\\omega}\\,d\\omega
+              = \\frac{4}{\\pi}\\int_0^\\infty \\mathrm{Re}\\,H(u^2)\\,
+              \\frac{\\sin 2\\pi u^2 t}{u}\\,du
+
+    taken with the trapezoid rule in ``u = sqrt(f)``, which resolves both the
+    sqrt(f) loss near 0 Hz and the oscillation at the top of the band.
+    Shape (paths, times).
+    """
+    sigma = rise_s / RISE_PER_SIGMA
+    f_max = 1.5 / sigma
+    times = np.asarray(times_s, dtype=float)
+    nq = int(min(8192, max(256, 8.0 * math.pi * f_max * times.max())))
+    u = np.linspace(0.0, math.sqrt(f_max), nq + 1)
+    f = u * u
+    k, a, g = (np.array(col, dtype=float)[:, None] for col in zip(*loss_terms, strict=True))
+    h = _unit_phasor(np.exp(-(k * u + a * f) - 2.0 * (math.pi * sigma * f) ** 2),
+                     k * u + g * f_log_f(f)).real
+    kernel = np.empty((nq + 1, times.size))
+    kernel[0] = 0.0  # sin(2 pi u^2 t)/u -> 0 at u = 0
+    kernel[1:] = np.sin(2.0 * math.pi * np.outer(f[1:], times)) / u[1:, None]
+    weights = np.full(nq + 1, u[1] - u[0])
+    weights[[0, -1]] *= 0.5
+    return (4.0 / math.pi) * (h * weights) @ kernel
+
+
+def _finish_arrivals(bounces: _Bounces, segments, junctions, settle_s: float, rise_s: float,
+                     pulse: bool) -> tuple[Arrival, ...]:
+    rows = sorted((p for p in bounces.paths if p.bound >= ARRIVAL_CUTOFF),
+                  key=lambda p: -p.bound)[:MAX_ARRIVALS]
+    # line loss: the lossy step 'settle_s' after the arrival, one evaluation per distinct
+    # loss (to 4 significant digits: an estimate, not worth more)
+    keys = [tuple(float(f"{x:.4g}") for x in p.loss) for p in rows]
+    unique = sorted({k for k in keys if any(k)})
+    loss_at = {(0.0, 0.0, 0.0): 1.0}
+    if unique:
+        loss_at.update(zip(unique, _lossy_steps(unique, [settle_s], rise_s)[:, 0], strict=True))
+    level_time = settle_s if pulse else math.inf
+    shapes: dict = {}  # (settled, excursion) per reactive factor
+    out = []
+    for p, key in zip(rows, keys, strict=True):
+        loss = loss_at[key]
+        size = start = p.const * loss
+        for f in p.reactive:
+            if id(f) not in shapes:
+                shapes[id(f)] = (f.step_at(level_time), f.excursion(rise_s, level_time))
+            size *= shapes[id(f)][0]
+            start *= shapes[id(f)][1]
+        if max(abs(size), abs(start)) < ARRIVAL_CUTOFF:
+            continue
+        out.append((p, float(size), float(start)))
+    out.sort(key=lambda r: (r[0].time_s, -abs(r[1])))
+    where = distance_from_round_trip([r[0].time_s for r in out], segments)
+    names = {j.index: j.name for j in junctions}
+    return tuple(Arrival(float(p.time_s), float(d), size,
+                         _path_text(p.events, names, len(segments)), start)
+                 for (p, size, start), d in zip(out, where, strict=True))
+
+
+def _creep_tails(paths, t_pre: float) -> tuple[np.ndarray, np.ndarray]:
+    """Arrival (in period time) and tail strength ``A`` of each path's skin-effect creep.
+
+    A path of DC size ``a`` through lines with a total skin term
+    ``(1+j) k sqrt(f)`` steps as ``a erfc(b / (2 sqrt(t)))`` with
+    ``b = k / sqrt(pi)``; late on its impulse response is ``A t**-1.5`` with
+    ``A = a b / (2 sqrt(pi))``, and its step ``a - 2 A t**-0.5``. No window
+    holds that tail; what lies beyond a period folds back into it.
+    """
+    lossy = [p for p in paths if p.loss[0] != 0.0]
+    t_a = np.array([p.time_s + t_pre for p in lossy])
+    amp = np.array([p.dc() * p.loss[0] / (2.0 * math.pi) for p in lossy])
+    return t_a, amp
+
+
+def _fine_fold(t_a, amp, period_s: float, sigma_x: float, tau: np.ndarray) -> np.ndarray:
+    """What the creep folds into the fine (high-passed) band, at period times ``tau``.
+
+    The high-pass (1 - Gaussian of spread sigma_x) leaves ``-(sigma_x**2/2) s''``
+    of a slow step ``s``, which for the creep is ``(3/4) sigma_x**2 A t**-2.5``.
+    """
+    m = np.arange(1, 5, dtype=float)[:, None, None] * period_s
+    late = m - t_a[None, :, None]
+    fold = (tau[None, None, :] + late) ** -2.5 - late ** -2.5
+    return 0.75 * sigma_x ** 2 * np.einsum("j,mjk->k", amp, fold)
+
+
+def _slow_fold(t_a, amp, period_s: float, tau: np.ndarray) -> np.ndarray:
+    """What the creep folds into the long coarse period, at period times ``tau``.
+
+    ``-2 A [(tau + late)**-0.5 - late**-0.5]`` summed over the later periods:
+    exactly for the first 8, as a straight line beyond (where it is one).
+    """
+    m = np.arange(1, 9, dtype=float)[:, None, None] * period_s
+    late = m - t_a[None, :, None]
+    near = -2.0 * np.einsum("j,mjk->k", amp, (tau[None, None, :] + late) ** -0.5 - late ** -0.5)
+    far = np.arange(9, 513, dtype=float)[:, None] * period_s - t_a[None, :]
+    tail = np.sum(far ** -1.5, axis=0) + 2.0 / np.sqrt(far[-1] + 0.5 * period_s) / period_s
+    return near + float(np.sum(amp * tail)) * tau
+
+
+# -- the transform ----------------------------------------------------------------
+def _fast_length(n: int) -> int:
+    """The smallest 2**k, 3 * 2**k or 5 * 2**(k-2) at or above ``n`` (quick FFT sizes)."""
+    best = 1 << max(0, int(n - 1).bit_length())
+    for m in (3, 5):
+        k = max(0, math.ceil(math.log2(max(n / m, 1))))
+        cand = m * (1 << k)
+        if n <= cand < best:
+            best = cand
+    return best
+
+
+def _cubic_at(t: np.ndarray, t0: float, dt: float, y: np.ndarray) -> np.ndarray:
+    """Four-point Lagrange interpolation of samples ``y`` (at ``t0 + k dt``) at times ``t``."""
+    y = np.concatenate([[2.0 * y[0] - y[1]], y])  # one sample before the first
+    x = (t - t0) / dt + 1.0
+    k = np.clip(np.floor(x).astype(int), 1, len(y) - 3)
+    u = x - k
+    um, u1, u2 = u + 1.0, u - 1.0, u - 2.0
+    return (-u * u1 * u2 / 6.0 * y[k - 1] + um * u1 * u2 / 2.0 * y[k]
+            - um * u * u2 / 2.0 * y[k + 1] + um * u * u1 / 6.0 * y[k + 2])
+
+
+def _running_integral(spec: np.ndarray, n: int, keep: int) -> np.ndarray:
+    r"""The step response (running integral of the impulse response) from its spectrum.
+
+    ``spec`` holds the rfft bins of one period of ``n`` samples. Integrating
+    term by term is exact for a band-limited periodic signal (a trapezoid sum
+    of the samples is not: it errs by about dt^2/12 h' on a sharp edge):
+
+    .. math:: s_k = X_0 k/n + P_k - P_0,\quad
+              P = \mathrm{irfft}\bigl(X_m / (j 2\pi m / n)\bigr)
+
+    Returns the first ``keep`` samples.
+    """
+    m = np.arange(spec.size)
+    y = np.empty_like(spec)
+    y[0] = 0.0
+    y[1:] = spec[1:] / (2j * math.pi * m[1:] / n)
+    p = np.fft.irfft(y, n)[:keep]
+    return spec[0].real * np.arange(keep) / n + (p - p[0])
+
+
+def simulate(
+    segments: Sequence[Segment],
+    load: Load,
+    *,
+    lumps: Sequence[Lump] = (),
+    source_z_ohm: float | None = None,
+    rise_time_s: float | None = None,
+    pulse_width_s: float | None = None,
+    n_points: int | None = None,
+    span_s: float | None = None,
+) -> Prediction:
+    """Predict the trace of a reflectometer at the near end of ``segments``.
+
+    ``source_z_ohm`` defaults to the first segment's Z0 (a matched
+    instrument). ``rise_time_s`` is the 10-90 % rise of the instrument's step
+    (default: as sharp as the grid shows cleanly, 4 samples). With
+    ``pulse_width_s`` the instrument sends a pulse of that width instead of a
+    step. ``span_s`` is the time shown after the instrument's own edge
+    (default: the whole run's round trip and a quarter more, plus time for
+    reactive parts to settle); ``n_points`` the number of samples (default
+    4096, more when a short rise time needs them; at most :data:`MAX_POINTS`).
+
+    ``level`` is the reflected voltage as a fraction of the incident step
+    (rho): 0 before any reflection, +1 after an open's, -1 after a short's.
+    Time 0 is the instrument's port; a short pre-trigger stretch comes first.
+    """
+    segments = tuple(segments)
+    lumps = tuple(lumps)
+    _check(segments, load, lumps, source_z_ohm, rise_time_s, pulse_width_s, n_points, span_s)
+    zs = float(segments[0].z0_ohm if source_z_ohm is None else source_z_ohm)
+    warnings: list[str] = []
+    round_trip = 2.0 * sum(s.delay_s for s in segments)
+    junctions = _junctions(segments, lumps)
+    load_factor = _load_factor(load, segments, lumps)
+    taus = load_factor.time_constants_s + [t for j in junctions for t in j.s11.time_constants_s]
+    tau_max = max(taus, default=0.0)
+    pulse = pulse_width_s or 0.0
+
+    if span_s is not None and span_s < round_trip:
+        raise InputError("--span", f"{span_s:.4g} s is shorter than the run's round trip "
+                         f"({round_trip:.4g} s); the load's echo would not show",
+                         f"{1.3 * round_trip:.3g} s")
+    base = 1.25 * round_trip + 5.0 * min(tau_max, 2.0 * round_trip) + pulse
+    m = MIN_RISE_SAMPLES
+    n = n_points or DEFAULT_POINTS
+    if n_points is None and rise_time_s is not None:
+        # enough samples for the rise time asked for (window = span + 3 tr, tr = m dt)
+        span_guess = span_s if span_s is not None else base + 10.0 * rise_time_s
+        need = m * (span_guess + 3.0 * rise_time_s) / rise_time_s
+        n = int(min(MAX_AUTO_POINTS, max(n, 1 << int(math.ceil(math.log2(need))))))
+    # the sharpest edge this grid shows: tr = m dt, with window = span + 3 tr = n dt
+    if span_s is not None:
+        tr_grid = m * span_s / (n - 3.0 * m)
+    else:  # span = base + 10 tr
+        tr_grid = m * base / (n - 13.0 * m)
+    tr = tr_grid if rise_time_s is None else rise_time_s
+    if tr < tr_grid * (1.0 - 1e-9):
+        warnings.append("rise-time-limited")
+        tr = tr_grid
+    span = span_s if span_s is not None else base + 10.0 * tr
+    t_pre = 3.0 * tr
+    window = span + t_pre
+    dt = window / n
+    sigma = tr / RISE_PER_SIGMA
+
+    settle = pulse if pulse else 8.0 * tr
+    bounces = _expand(segments, junctions, load_factor, zs, tr,
+                      horizon_s=MAX_FFT * dt)
+    if bounces.truncated:
+        warnings.append("arrivals-truncated")
+
+    def excitation(f, lowpass_sigma, high):
+        """The instrument's edge and pre-trigger delay, times one side of the crossover."""
+        g = np.exp(-2.0 * (math.pi * sigma * f) ** 2)
+        w = np.exp(-2.0 * (math.pi * lowpass_sigma * f) ** 2)
+        x = _unit_phasor(g * (1.0 - w) if high else g * w, (2.0 * math.pi * t_pre) * f)
+        if pulse:
+            x *= 1.0 - _unit_phasor(np.ones_like(f), (2.0 * math.pi * pulse) * f)
+        return x
+
+    # fine grid: the display window, the crossover's spread, every bounce found, and a
+    # stretch after them that must be quiet (else the period doubles: nothing wraps)
+    sigma_x = window / CROSSOVER_PER_WINDOW  # crossover low-pass (its time spread)
+    need_t = max(window, bounces.last_time_s + t_pre + settle + 4.0 * tr) + 16.0 * sigma_x
+    n_fft = min(MAX_FFT, _fast_length(int(math.ceil(need_t / dt))))
+    quiet_from = need_t - 12.0 * sigma_x
+    while True:
+        f_fine = np.fft.rfftfreq(n_fft, dt)
+        spec = _cascade(_Grid(f_fine), segments, junctions, load_factor, zs)
+        spec *= excitation(f_fine, sigma_x, high=True)
+        full = _running_integral(spec, n_fft, n_fft)
+        quiet = full[int(quiet_from / dt):n_fft - int(6.0 * sigma_x / dt)]
+        if quiet.size < 2 or np.ptp(quiet) <= QUIET_LEVEL:
+            break
+        if n_fft == MAX_FFT:
+            warnings.append("tail-folds")
+            break
+        quiet_from = n_fft * dt
+        n_fft = min(MAX_FFT, _fast_length(2 * n_fft))
+    period = n_fft * dt
+    level = full[:n]
+    t_a, amp = _creep_tails(bounces.paths, t_pre) if not pulse else (np.array([]),) * 2
+    if amp.size:
+        nodes = np.linspace(0.0, window, 65)
+        level -= np.interp(np.arange(n) * dt, nodes,
+                           _fine_fold(t_a, amp, period, sigma_x, nodes))
+
+    # coarse grid: the slow part, with a long period (reactive tails and skin-effect creep)
+    period_lo = max(LOW_BAND_PERIODS * period, window + 12.0 * tau_max)
+    dt_lo = sigma_x / 8.0
+    f_lo_max = 1.3 / sigma_x
+    df_lo = 1.0 / period_lo
+    n_lo_f = int(math.ceil(f_lo_max / df_lo)) + 1
+    if n_lo_f > MAX_FFT // 2:
+        n_lo_f = MAX_FFT // 2
+        df_lo = f_lo_max / (n_lo_f - 1)
+        warnings.append("tail-folds")
+    f_lo = np.arange(n_lo_f) * df_lo
+    n_lo = _fast_length(int(math.ceil(1.0 / (df_lo * dt_lo))))
+    dt_lo = 1.0 / (df_lo * n_lo)
+    spec_lo = _cascade(_Grid(f_lo), segments, junctions, load_factor, zs)
+    spec_lo = spec_lo * excitation(f_lo, sigma_x, high=False)
+    k_lo = int(math.ceil(window / dt_lo)) + 4
+    slow = _running_integral(spec_lo, n_lo, k_lo)
+    t_lo = np.arange(k_lo) * dt_lo - t_pre
+    if amp.size:
+        nodes = np.linspace(0.0, window + 4.0 * dt_lo, 65)
+        slow -= np.interp(t_lo + t_pre, nodes, _slow_fold(t_a, amp, 1.0 / df_lo, nodes))
+    time = np.arange(n) * dt - t_pre
+    level = level + _cubic_at(time, -t_pre, dt_lo, slow)
+
+    arrivals = _finish_arrivals(bounces, segments, junctions, settle, tr, bool(pulse))
+    return Prediction(
+        time_s=time, distance_m=distance_from_round_trip(time, segments), level=level,
+        arrivals=arrivals, rise_time_s=tr, pulse_width_s=pulse_width_s, source_z_ohm=zs,
+        round_trip_s=round_trip, span_s=span, frequency_step_hz=1.0 / period, n_fft=n_fft,
+        warnings=tuple(dict.fromkeys(warnings)))
