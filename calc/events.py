@@ -109,12 +109,13 @@ class Event:
     shape: str  # "step", "bump", "dip" or "relaxing"
     kind: str
     confidence: float
-    description: str
     snr: float
     time_constant_s: float | None = None
     capacitance_f: float | None = None
     inductance_h: float | None = None
     alternatives: tuple[str, ...] = ()
+    level_reached: float = 0.0  # level after, allowing for the loss in front (for naming)
+    bounce_of: tuple[int, int] | None = None  # a second trip between these two events
     # where it is (filled by :func:`place`)
     distance_m: float | None = None
     distance_low_m: float | None = None
@@ -124,6 +125,9 @@ class Event:
     offset_in_segment_m: float | None = None
     beyond_end: bool = False
     at_far_end: bool = False
+    joint_index: int | None = None  # at the joint after this segment (0-based), if any
+    loss_delay_s: float = 0.0  # taken off the delay for the loss's lag before placing
+    loss_scale: float = 1.0  # fraction of a full reflection the loss in front lets back
 
 
 @dataclass(frozen=True)
@@ -336,8 +340,15 @@ def analyse(time_s: np.ndarray, level: np.ndarray, *, z0_ohm: float = 50.0,
         next_start = groups[gi + 1][0] if gi + 1 < len(groups) else rho.size
         ev = _measure(t, rho, smooth, d, s, e, prev_end, next_start, window, t_zero,
                       sigma_d, threshold, z0_ohm, dt, n_rise)
-        if ev is not None:
-            events.append(ev)
+        if ev is None:
+            continue
+        faint = float(np.max(np.abs(d[s:e + 1]))) < 3.0 * threshold
+        if faint and events and _still_moving(events[-1], ev, threshold):
+            # the previous event's level is still creeping this way (cable loss, a
+            # reactance settling): this is its tail, not an event of its own
+            events[-1] = replace(events[-1], level_settled=ev.level_settled)
+            continue
+        events.append(ev)
     if ringing > 0:
         events = _drop_ringing(events, ringing, 20 * rise)
     if len(events) > max_events:
@@ -345,7 +356,7 @@ def analyse(time_s: np.ndarray, level: np.ndarray, *, z0_ohm: float = 50.0,
                       key=lambda ev: ev.round_trip_delay_s)
         notes.append(f"{len(events)} events found; the {max_events} largest are listed")
         events = keep
-    events = _name_all(events, z0_ohm)
+    events = _name_all(events, rise, threshold)
     return Analysis(
         z0_ohm=z0_ohm, incident=edge, time_zero_s=t_zero, sample_interval_s=dt,
         rise_time_s=rise, noise_rms=noise_rms, threshold=threshold,
@@ -472,32 +483,41 @@ def _measure(t, rho, smooth, d, s, e, prev_end, next_start, window, t_zero, sigm
     settled = float(np.median(rho[s0:s1])) if s1 > s0 else after
     seg = smooth[s:e + 1] - before
     k_peak = int(np.argmax(np.abs(seg)))
-    peak = float(seg[k_peak]) + before
-    excursion = peak - before
+    excursion = float(seg[k_peak])
     net = after - before
-    i_peak = s + k_peak
     if abs(excursion) < threshold:
         return None
-    if abs(net) < 0.35 * abs(excursion):
+    # the swing against the final direction (a capacitor dips before it rises)
+    final = settled - before if abs(settled - before) > abs(net) else net
+    k_against = int(np.argmin(seg)) if final > 0 else int(np.argmax(seg))
+    against = float(seg[k_against]) if final * float(seg[k_against]) < 0 else 0.0
+    area = 0.0
+    if abs(net) < 0.35 * abs(excursion) and abs(settled - before) < 0.35 * abs(excursion):
         shape = "bump" if excursion > 0 else "dip"
+    elif abs(against) > max(4 * threshold, 0.15 * abs(final)):
+        shape, excursion, k_peak = "relaxing", against, k_against
+    elif abs(excursion) - abs(net) > max(0.3 * abs(net), 4 * threshold):
+        shape = "relaxing"  # overshoots, then settles the same way (an L into a load)
+    else:
+        shape = "step"
+    i_peak = s + k_peak
+    peak = before + excursion
+    if shape in ("bump", "dip"):
         time = _peak_time(t, smooth, i_peak)
         size = excursion
         tail = min(e + 1 + 2 * (e - s + 1), next_start, rho.size)  # slow tails of reactances
         area = float(np.sum(rho[s:tail] - before) * dt)
         level_for_z = peak
+    elif shape == "relaxing":
+        time = _crossing(t, smooth, before + 0.5 * excursion, i_peak, s, i_peak)
+        size = excursion
+        level_for_z = settled
     else:
-        opposite = excursion * net < 0  # swings one way, ends the other
-        overshoot = abs(excursion) - abs(net) > max(0.3 * abs(net), 4 * threshold)
-        shape = "relaxing" if opposite or overshoot else "step"
-        if shape == "relaxing":
-            time = _crossing(t, smooth, before + 0.5 * excursion, i_peak, s, i_peak)
-            size = excursion
-            level_for_z = settled
-        else:
-            time = _crossing(t, smooth, 0.5 * (before + after), i_d, s, e)
-            size = net
-            level_for_z = after
-        area = 0.0
+        time = _crossing(t, smooth, 0.5 * (before + after), i_d, s, e)
+        size = net
+        level_for_z = after
+    if abs(size) < threshold:  # swings that come back to nothing within the noise
+        return None
     snr = abs(size) / sigma_d if sigma_d > 0 else math.inf
     tau = None
     if shape == "relaxing":
@@ -511,8 +531,14 @@ def _measure(t, rho, smooth, d, s, e, prev_end, next_start, window, t_zero, sigm
         round_trip_delay_s=time - t_zero, size=size, level_before=before, level_after=after,
         level_settled=settled, peak_level=peak,
         impedance_ohm=implied_impedance(level_for_z, z0_ohm), shape=shape, kind="",
-        confidence=0.0, description="", snr=snr, time_constant_s=tau, capacitance_f=cap,
+        confidence=0.0, snr=snr, time_constant_s=tau, capacitance_f=cap,
         inductance_h=ind)
+
+
+def _still_moving(prev: Event, ev: Event, threshold: float) -> bool:
+    """True when ``prev``'s level was still moving the way ``ev`` goes."""
+    creep = prev.level_settled - prev.level_after
+    return abs(creep) > 2.0 * threshold and np.sign(creep) == np.sign(ev.size)
 
 
 def _peak_time(t: np.ndarray, y: np.ndarray, i: int) -> float:
@@ -556,14 +582,24 @@ def _drop_ringing(events: list[Event], ringing: float, reach_s: float) -> list[E
 
 @dataclass(frozen=True)
 class Verdict:
+    """What an event probably is: its kind, a confidence score, what else it could be."""
+
     kind: str
     confidence: float
-    description: str
     alternatives: tuple[str, ...] = ()
+    reached: float = 0.0  # the level after, allowing for the loss in front
 
 
-def classify(ev: Event, z0_ohm: float, *, loss_scale: float = 1.0, is_last: bool = False,
-             at_far_end: bool = False, after_end: bool = False) -> Verdict:
+#: Multiple reflections: an event this close (in rise times) to t_j + (t_j - t_i)
+#: for two earlier events i < j, and no bigger than BOUNCE_SIZE x their sizes'
+#: product (plus the noise), is the wave's second trip between them.
+BOUNCE_RISE_TIMES = 1.5
+BOUNCE_SIZE = 2.0
+
+
+def classify(ev: Event, *, loss_scale: float = 1.0, is_last: bool = False,
+             at_far_end: bool = False, after_end: bool = False,
+             bounce: bool = False) -> Verdict:
     """Name an event from its shape and level.
 
     ``loss_scale`` (0..1] is the fraction of a full reflection that survives
@@ -572,12 +608,14 @@ def classify(ev: Event, z0_ohm: float, *, loss_scale: float = 1.0, is_last: bool
     with the open/short limits. ``at_far_end`` says the event sits at the far
     end of the described run; ``is_last`` that nothing follows it;
     ``after_end`` that it comes after an open or a short, or past the far
-    end of the described run, where nothing further down the cable can show.
+    end of the described run, where nothing further down the cable can show;
+    ``bounce`` that its delay and size fit a second trip between two earlier
+    events.
 
     Rules (common practice of trace reading):
 
-    * after an open, a short or the run's far end: a re-reflection, a second
-      trip between two mismatches;
+    * after an open, a short or the run's far end, or timed and sized as a
+      second trip between two earlier mismatches: a re-reflection;
     * level reaching at least +0.8 (Z >= 9 Z0) after a rise: an open, or a
       very high impedance; at most -0.8 after a fall: a short;
     * any other lasting rise: a higher-impedance section (or, at the end, a
@@ -588,123 +626,185 @@ def classify(ev: Event, z0_ohm: float, *, loss_scale: float = 1.0, is_last: bool
       the far end, a load with inductance in series or capacitance across;
     * a fall that relaxes upward: a capacitive load; a rise that relaxes
       downward: an inductive load.
+
+    The confidence is a score, not a probability: the signal-to-noise part
+    ``1 - exp(-snr/20)`` times a factor for how many things look the same
+    (0.95 for a clear open or short on a lossless cable, 0.85 at the end of
+    a described run, 0.75 for a section or a reactance, 0.6 for the last
+    event when the run's end is unknown) times, for an open or a short, how
+    far past the +/-0.8 limit the level goes.
     """
     scale = min(max(loss_scale, 0.05), 1.0)
     snr_score = 1.0 - math.exp(-ev.snr / 20.0) if math.isfinite(ev.snr) else 1.0
-    z = ev.impedance_ohm
-    zt = _z_text(z)
-    if after_end:
-        return Verdict("re_reflection", round(0.7 * snr_score, 2),
-                       f"{ev.size:+.3f} after the far end (an open, a short or the end of the "
-                       "described run): most likely a re-reflection, the wave's second trip "
-                       "between two mismatches; or the run is longer than described",
-                       ())
+    reached = ev.level_before + ev.size / scale
+
+    def verdict(kind, factor, alternatives=()):
+        return Verdict(kind, round(min(max(factor * snr_score, 0.0), 1.0), 2),
+                       tuple(alternatives), reached)
+
+    if after_end or bounce:
+        return verdict("re_reflection", 0.7)
     if ev.shape in ("bump", "dip") and at_far_end:
         if ev.shape == "bump":
-            return Verdict("inductive_load", round(0.7 * snr_score, 2),
-                           f"brief bump of {ev.size:+.3f} at the far end: a load with about "
-                           f"{_eng(ev.inductance_h or 0.0, 'H')} in series (it settles to "
-                           f"{ev.level_settled:+.3f}, {_z_text(implied_impedance(ev.level_settled, z0_ohm))})",
-                           ("inductive_bump",))
-        return Verdict("capacitive_load", round(0.7 * snr_score, 2),
-                       f"brief dip of {ev.size:+.3f} at the far end: a load with about "
-                       f"{_eng(ev.capacitance_f or 0.0, 'F')} across it (it settles to "
-                       f"{ev.level_settled:+.3f}, {_z_text(implied_impedance(ev.level_settled, z0_ohm))})",
-                       ("capacitive_dip",))
+            return verdict("inductive_load", 0.7, ("inductive_bump",))
+        return verdict("capacitive_load", 0.7, ("capacitive_dip",))
     if ev.shape == "bump":
-        ind = ev.inductance_h or 0.0
-        return Verdict("inductive_bump", round(0.75 * snr_score, 2),
-                       f"brief bump of {ev.size:+.3f}: a series inductance of about "
-                       f"{_eng(ind, 'H')} (a connector, a splice, a pigtail) or a short piece "
-                       "of higher impedance",
-                       ("higher_impedance",))
+        return verdict("inductive_bump", 0.75, ("higher_impedance",))
     if ev.shape == "dip":
-        cap = ev.capacitance_f or 0.0
-        return Verdict("capacitive_dip", round(0.75 * snr_score, 2),
-                       f"brief dip of {ev.size:+.3f}: a shunt capacitance of about "
-                       f"{_eng(cap, 'F')} (a connector, a kink or crushed spot, a tap) or a "
-                       "short piece of lower impedance",
-                       ("lower_impedance",))
+        return verdict("capacitive_dip", 0.75, ("lower_impedance",))
     if ev.shape == "relaxing":
-        tau = ev.time_constant_s
-        tau_text = f" (time constant about {_eng(tau, 's')})" if tau else ""
         if ev.size < 0:
-            return Verdict("capacitive_load", round(0.7 * snr_score, 2),
-                           f"falls like a short, then relaxes to {ev.level_settled:+.3f} "
-                           f"({zt}){tau_text}: a capacitive load or a capacitor across the line",
-                           ("lower_impedance",))
-        return Verdict("inductive_load", round(0.7 * snr_score, 2),
-                       f"rises like an open, then relaxes to {ev.level_settled:+.3f} "
-                       f"({zt}){tau_text}: an inductive load or an inductance in series",
-                       ("higher_impedance",))
-    # a lasting step
-    reached = ev.level_before + ev.size / scale
-    loss_note = " (allowing for the cable's loss)" if scale < 0.98 else ""
+            return verdict("capacitive_load", 0.7, ("lower_impedance",))
+        return verdict("inductive_load", 0.7, ("higher_impedance",))
+    clear = 0.95 if scale >= 0.98 else 0.8
     if ev.size > 0 and reached >= OPEN_SHORT_LEVEL:
         margin = min(1.0, (reached - OPEN_SHORT_LEVEL) / (1.0 - OPEN_SHORT_LEVEL) + 0.5)
-        where = " at the end of the run" if at_far_end else ""
-        return Verdict("open", round(snr_score * margin * (0.95 if scale >= 0.98 else 0.8), 2),
-                       f"rises to {ev.level_after:+.3f}{loss_note}: an open{where}, or a very "
-                       "high impedance (a broken centre conductor, an unterminated end)",
-                       ("higher_impedance",))
+        return verdict("open", clear * margin, ("higher_impedance",))
     if ev.size < 0 and reached <= -OPEN_SHORT_LEVEL:
         margin = min(1.0, (-OPEN_SHORT_LEVEL - reached) / (1.0 - OPEN_SHORT_LEVEL) + 0.5)
-        where = " at the end of the run" if at_far_end else ""
-        return Verdict("short", round(snr_score * margin * (0.95 if scale >= 0.98 else 0.8), 2),
-                       f"falls to {ev.level_after:+.3f}{loss_note}: a short{where}, or a very "
-                       "low impedance (a crushed or shorted cable, water in a connector)",
-                       ("lower_impedance",))
+        return verdict("short", clear * margin, ("lower_impedance",))
     if at_far_end:
-        return Verdict("end_of_run", round(0.85 * snr_score, 2),
-                       f"step of {ev.size:+.3f} at the far end of the run: a load of about {zt}",
+        return verdict("end_of_run", 0.85,
                        ("higher_impedance" if ev.size > 0 else "lower_impedance",))
-    tail = " or, if the run ends here, a load of about " + zt if is_last else ""
-    certainty = 0.6 if is_last else 0.75
-    if ev.size > 0:
-        return Verdict("higher_impedance", round(certainty * snr_score, 2),
-                       f"step up of {ev.size:+.3f} to about {zt}: a higher-impedance section "
-                       f"(a different cable, a stretched or damaged spot){tail}",
-                       ("end_of_run",) if is_last else ())
-    return Verdict("lower_impedance", round(certainty * snr_score, 2),
-                   f"step down of {ev.size:+.3f} to about {zt}: a lower-impedance section "
-                   f"(water in the cable, a crushed spot, a different cable){tail}",
-                   ("end_of_run",) if is_last else ())
+    kind = "higher_impedance" if ev.size > 0 else "lower_impedance"
+    return verdict(kind, 0.6 if is_last else 0.75, ("end_of_run",) if is_last else ())
 
 
-def _name_all(events: list[Event], z0_ohm: float, loss_scales=None, far_end=None) -> list[Event]:
-    """Name every event in order; what follows an open, a short or the far end
-    of the run is a re-reflection."""
-    out = []
-    ended = False
-    for i, ev in enumerate(events):
-        verdict = classify(ev, z0_ohm,
-                           loss_scale=1.0 if loss_scales is None else loss_scales[i],
-                           is_last=i == len(events) - 1,
-                           at_far_end=bool(far_end and far_end[i]),
-                           after_end=ended or (ev.beyond_end and not (far_end and far_end[i])))
-        out.append(replace(ev, kind=verdict.kind, confidence=verdict.confidence,
-                           description=verdict.description, alternatives=verdict.alternatives))
-        ended = ended or verdict.kind in ("open", "short") or bool(far_end and far_end[i])
+def _bounces(events: list[Event], rise_s: float, threshold: float
+             ) -> list[tuple[int, int] | None]:
+    """For each event, (i, j) when it is timed and sized as a second trip
+    between earlier events i < j, else None (all pairs at once, with numpy)."""
+    n = len(events)
+    out: list[tuple[int, int] | None] = [None] * n
+    if n < 3:
+        return out
+    t = np.array([e.round_trip_delay_s for e in events])
+    size = np.abs(np.array([e.size for e in events]))
+    i, j = np.triu_indices(n, k=1)
+    when = 2.0 * t[j] - t[i]
+    most = BOUNCE_SIZE * size[i] * size[j] + 3.0 * threshold
+    for k in range(2, n):
+        fits = (j < k) & (np.abs(t[k] - when) <= BOUNCE_RISE_TIMES * rise_s) & (size[k] <= most)
+        if fits.any():
+            m = int(np.flatnonzero(fits)[0])
+            out[k] = (int(i[m]), int(j[m]))
     return out
 
 
-def _z_text(z: float) -> str:
-    if not math.isfinite(z):
-        return "an open"
-    return f"{z:.3g} ohm"
-
-
-def _eng(value: float, unit: str) -> str:
-    if value is None or not math.isfinite(value) or value == 0:
-        return f"0 {unit}"
-    for scale, prefix in ((1.0, ""), (1e-3, "m"), (1e-6, "u"), (1e-9, "n"), (1e-12, "p"),
-                          (1e-15, "f")):
-        if abs(value) >= scale:
-            return f"{value / scale:.3g} {prefix}{unit}"
-    return f"{value:.3g} {unit}"
+def _name_all(events: list[Event], rise_s: float, threshold: float, loss_scales=None,
+              far_end=None) -> list[Event]:
+    """Name every event in order; what follows an open, a short or the far end
+    of the run, or what is timed as a second trip between two earlier
+    events, is a re-reflection."""
+    out: list[Event] = []
+    ended = False
+    bounces = _bounces(events, rise_s, threshold)
+    for k, ev in enumerate(events):
+        at_end = bool(far_end and far_end[k])
+        bounce = bounces[k]
+        verdict = classify(ev, loss_scale=1.0 if loss_scales is None else loss_scales[k],
+                           is_last=k == len(events) - 1, at_far_end=at_end,
+                           after_end=ended or (ev.beyond_end and not at_end),
+                           bounce=bounce is not None)
+        out.append(replace(ev, kind=verdict.kind, confidence=verdict.confidence,
+                           alternatives=verdict.alternatives, level_reached=verdict.reached,
+                           bounce_of=bounce))
+        ended = ended or verdict.kind in ("open", "short") or at_end
+    return out
 
 
 # ---------------------------------------------------------------------- place
+
+
+@dataclass(frozen=True)
+class LossEffect:
+    """What the cable's loss does to a full reflection from a given distance,
+    as :func:`analyse` measures it: the step's size (a fraction of 1) and how
+    late its 50 % point comes after the lossless round trip."""
+
+    scale: float = 1.0
+    delay_s: float = 0.0  # lag of a step's 50 % point
+    peak_delay_s: float = 0.0  # lag of the steepest point: where a brief bump or dip peaks
+
+
+def loss_effect(distance_m: float, rise_time_s: float, segments=None, cable=None,
+                threshold: float = MIN_EVENT_SIZE) -> LossEffect:
+    """The loss of the cable between the instrument and ``distance_m``.
+
+    The echo predictor (:func:`calc.simulate.simulate`) is run on that stretch
+    (the run's pieces, or ``cable`` for one cable), all at the first cable's
+    Z0 so that only loss counts, ended in an open, at the trace's rise time;
+    :func:`analyse` then reads its step exactly as it reads the recorded
+    trace (with that trace's ``threshold``). Skin-effect loss spreads the
+    edge, so its 50 % point comes late: the lag is taken off the event's
+    delay before placing it.
+    """
+    from calc.loads import parse_load
+    from calc.simulate import Segment, simulate
+
+    cables = [s.cable for s in segments] if segments is not None else [cable]
+    if distance_m <= 0 or not any(c is not None and c.has_loss_model for c in cables):
+        return LossEffect()
+    z0 = cables[0].z0_ohm
+    if segments is None:
+        front = [Segment(distance_m, z0, cable.vf, cable.atten_k1, cable.atten_k2, cable.id)]
+    else:
+        front, start = [], 0.0
+        for k, seg in enumerate(segments):
+            last = k == len(segments) - 1
+            part = distance_m - start if last else min(seg.length_m, distance_m - start)
+            if part > 0:
+                c = seg.cable
+                front.append(Segment(part, z0, c.vf, c.atten_k1, c.atten_k2, c.id))
+            start += seg.length_m
+    pred = simulate(front, parse_load("open", "load"), rise_time_s=rise_time_s)
+    seen = analyse(pred.time_s, pred.level, incident_edge=False, rise_time_s=rise_time_s,
+                   min_size=threshold).events
+    if not seen:
+        return LossEffect(0.05, 0.0)
+    lossless = 2.0 * sum(p.delay_s for p in front)
+    step = seen[0]
+    # A small series L or shunt C reflects the derivative of the edge, so a
+    # brief bump peaks where this lossy step is steepest.
+    slope = np.diff(pred.level)
+    steepest = _peak_time(pred.time_s[:-1], slope, int(np.argmax(slope)))
+    steepest += 0.5 * float(pred.time_s[1] - pred.time_s[0])
+    return LossEffect(float(min(max(step.size, 0.05), 1.0)),
+                      max(step.round_trip_delay_s - lossless, 0.0),
+                      max(steepest - lossless, 0.0))
+
+
+def _placed(ev: Event, t: float, rise: float, vf, vf_tolerance, segments) -> Event:
+    """``ev`` put at round-trip delay ``t`` on one cable or in a run."""
+    from calc import locate as loc
+    from calc.errors import OutOfRunError
+
+    if segments is None:
+        if t <= 0:
+            return replace(ev, distance_m=0.0, distance_low_m=0.0, distance_high_m=0.0)
+        where = loc.locate(t, vf, vf_tolerance)
+        return replace(ev, distance_m=where.distance_m, distance_low_m=where.distance_low_m,
+                       distance_high_m=where.distance_high_m)
+    end = loc.run_junctions(segments)[-1]
+    at_end = end.round_trip_delay_low_s - rise <= t <= end.round_trip_delay_high_s + rise
+    if t <= 0:
+        return replace(ev, distance_m=0.0, distance_low_m=0.0, distance_high_m=0.0,
+                       segment_index=0, cable_id=segments[0].cable.id, offset_in_segment_m=0.0)
+    try:
+        where = loc.locate_in_run(t, segments)
+    except OutOfRunError:
+        past = loc.distance_from_delay_m(t - end.round_trip_delay_s, segments[-1].cable.vf)
+        return replace(ev, distance_m=end.distance_m + past, distance_low_m=None,
+                       distance_high_m=None, segment_index=None, cable_id=None,
+                       offset_in_segment_m=None, beyond_end=True, at_far_end=at_end)
+    joint = None
+    for j in loc.run_junctions(segments)[:-1]:
+        if j.round_trip_delay_low_s - rise <= t <= j.round_trip_delay_high_s + rise:
+            joint = j.after_segment_index
+    return replace(ev, distance_m=where.distance_m, distance_low_m=where.distance_low_m,
+                   distance_high_m=where.distance_high_m, segment_index=where.segment_index,
+                   cable_id=where.cable_id, offset_in_segment_m=where.offset_in_segment_m,
+                   beyond_end=False, at_far_end=at_end, joint_index=joint)
 
 
 def place(analysis: Analysis, *, vf: float | None = None, vf_tolerance: float = 0.0,
@@ -716,100 +816,31 @@ def place(analysis: Analysis, *, vf: float | None = None, vf_tolerance: float = 
     event later than the far end (even with every cable at its slowest) is
     marked ``beyond_end`` and placed past the end on the last cable's
     velocity; one whose delay range covers the far end's is ``at_far_end``.
-    The events are then named again with that knowledge and, when
-    ``with_loss`` and the cables (``segments``, or the one ``cable``) carry a
-    loss model, with the loss in front of each (:func:`loss_scales`).
+    When ``with_loss`` and the cables (``segments``, or the one ``cable``)
+    carry a loss model, a step's delay is first corrected for the lag that
+    loss gives its 50 % point (a brief bump's or dip's for the lag of its
+    peak), and every event's size is weighed against the loss in front of it (:func:`loss_effect`); ``loss_delay_s`` and
+    ``loss_scale`` say by how much. Past the far end the last cable is taken
+    to go on. The events are then named again with that knowledge.
     """
-    from calc import locate as loc
-    from calc.errors import OutOfRunError
-
     if (vf is None) == (segments is None):
         raise ValueError("give a velocity factor or a run of segments")
     rise = analysis.rise_time_s
-    placed = []
+    placed, scales = [], []
     for ev in analysis.events:
-        t = ev.round_trip_delay_s
-        if segments is None:
-            if t <= 0:
-                placed.append(replace(ev, distance_m=0.0, distance_low_m=0.0,
-                                      distance_high_m=0.0))
-                continue
-            where = loc.locate(t, vf, vf_tolerance)
-            placed.append(replace(ev, distance_m=where.distance_m,
-                                  distance_low_m=where.distance_low_m,
-                                  distance_high_m=where.distance_high_m))
-            continue
-        junctions = loc.run_junctions(segments)
-        end = junctions[-1]
-        at_end = end.round_trip_delay_low_s - rise <= t <= end.round_trip_delay_high_s + rise
-        if t <= 0:
-            placed.append(replace(ev, distance_m=0.0, distance_low_m=0.0, distance_high_m=0.0,
-                                  segment_index=0, cable_id=segments[0].cable.id,
-                                  offset_in_segment_m=0.0))
-            continue
-        try:
-            where = loc.locate_in_run(t, segments)
-        except OutOfRunError:
-            last = segments[-1].cable
-            past = loc.distance_from_delay_m(t - end.round_trip_delay_s, last.vf)
-            placed.append(replace(ev, distance_m=end.distance_m + past,
-                                  distance_low_m=None, distance_high_m=None,
-                                  segment_index=None, cable_id=None,
-                                  offset_in_segment_m=None, beyond_end=True,
-                                  at_far_end=at_end))
-            continue
-        placed.append(replace(ev, distance_m=where.distance_m,
-                              distance_low_m=where.distance_low_m,
-                              distance_high_m=where.distance_high_m,
-                              segment_index=where.segment_index, cable_id=where.cable_id,
-                              offset_in_segment_m=where.offset_in_segment_m,
-                              at_far_end=at_end))
+        first = _placed(ev, ev.round_trip_delay_s, rise, vf, vf_tolerance, segments)
+        effect = LossEffect()
+        if with_loss and first.distance_m:
+            effect = loss_effect(first.distance_m, rise, segments, cable, analysis.threshold)
+        lag = {"step": effect.delay_s, "bump": effect.peak_delay_s,
+               "dip": effect.peak_delay_s}.get(ev.shape, 0.0)
+        if lag > 0:
+            first = _placed(ev, ev.round_trip_delay_s - lag, rise, vf, vf_tolerance, segments)
+        placed.append(replace(first, loss_delay_s=lag, loss_scale=effect.scale))
+        scales.append(effect.scale)
     far_end = [ev.at_far_end for ev in placed]
-    placed_analysis = replace(analysis, events=tuple(placed))
-    scales = loss_scales(placed_analysis, segments, cable) if with_loss else None
-    return replace(analysis, events=tuple(_name_all(placed, analysis.z0_ohm, scales,
+    return replace(analysis, events=tuple(_name_all(placed, rise, analysis.threshold, scales,
                                                     far_end)))
-
-
-def loss_scales(analysis: Analysis, segments=None, cable=None) -> list[float]:
-    """For each placed event, the fraction of a full reflection that the
-    loss of the cable in front of it lets back.
-
-    The echo predictor (:func:`calc.simulate.simulate`) is run on the cable
-    between the instrument and the event (the run's pieces, or ``cable`` for
-    one cable), all at the first cable's Z0 so that only loss counts, ended
-    in an open, at the trace's rise time: the open's first arrival size is
-    the fraction. 1 without a loss model, past the run's end, or at 0 m.
-    """
-    from calc.loads import parse_load
-    from calc.simulate import Segment, simulate
-
-    pieces = segments if segments is not None else ()
-    cables = [s.cable for s in pieces] + ([cable] if cable is not None else [])
-    if not any(c.has_loss_model for c in cables):
-        return [1.0] * len(analysis.events)
-    z0 = cables[0].z0_ohm
-    open_end = parse_load("open", "load")
-    out = []
-    for ev in analysis.events:
-        d = ev.distance_m
-        if d is None or d <= 0 or ev.beyond_end:
-            out.append(1.0)
-            continue
-        if segments is None:
-            front = [Segment(d, z0, cable.vf, cable.atten_k1, cable.atten_k2, cable.id)]
-        else:
-            front, start = [], 0.0
-            for seg in segments:
-                part = min(seg.length_m, d - start)
-                if part > 0:
-                    c = seg.cable
-                    front.append(Segment(part, z0, c.vf, c.atten_k1, c.atten_k2, c.id))
-                start += seg.length_m
-        pred = simulate(front, open_end, rise_time_s=analysis.rise_time_s)
-        sizes = [a.size for a in pred.arrivals if "reflect at the load" in a.path]
-        out.append(float(min(max(sizes[0], 0.05), 1.0)) if sizes else 1.0)
-    return out
 
 
 def run_segments(segments):
@@ -869,63 +900,92 @@ class Comparison:
 #: Tolerance of a match: TOLERANCE_RISE_TIMES rise times plus the cables'
 #: VF tolerance times the predicted delay.
 TOLERANCE_RISE_TIMES = 1.5
-#: A found event further from its prediction than this many tolerances (or
-#: MISPLACED_REACH of the predicted delay, whichever is more) is not taken
-#: for it at all.
+#: A found event further from its prediction than this many tolerances, or
+#: than MISPLACED_REACH of the predicted delay (MISPLACED_REACH_SAME for an
+#: event of the same kind), whichever is more, is not taken for it at all.
 MISPLACED_TOLERANCES = 4.0
 MISPLACED_REACH = 0.15
+MISPLACED_REACH_SAME = 0.5
+#: Pairing prefers events of the same kind: a different kind costs this many
+#: tolerances. A re-reflection is never paired with a first reflection.
+KIND_PENALTY = 2.0
 
 
-def expected_events(prediction, analysis: Analysis, vf_tolerance: float) -> list[Expected]:
+def expected_events(prediction, analysis: Analysis, segments,
+                    vf_tolerance: float) -> list[Expected]:
     """The events :func:`analyse` finds on a noiseless prediction, at the
-    recorded trace's rise time and threshold."""
+    recorded trace's rise time and threshold, placed and named on the
+    expected run (``segments``, calc.run.RunSegment) as the trace's are."""
     pa = analyse(prediction.time_s, prediction.level, z0_ohm=analysis.z0_ohm,
                  incident_edge=False, rise_time_s=analysis.rise_time_s,
                  min_size=analysis.threshold)
+    pa = place(pa, segments=segments)
     out = []
     for ev in pa.events:
         t = ev.round_trip_delay_s
+        arrival_t = t - ev.loss_delay_s
         near = [a for a in prediction.arrivals
-                if abs(a.time_s - t) <= 2.0 * analysis.rise_time_s]
+                if abs(a.time_s - arrival_t) <= 2.0 * analysis.rise_time_s]
         path = max(near, key=lambda a: abs(a.size)).path if near else ""
         tol_s = TOLERANCE_RISE_TIMES * analysis.rise_time_s + vf_tolerance * max(t, 0.0)
         d = float(np.interp(t, prediction.time_s, prediction.distance_m))
         d_hi = float(np.interp(t + tol_s, prediction.time_s, prediction.distance_m))
-        out.append(Expected(t, d, ev.size, ev.kind, path, tol_s, abs(d_hi - d)))
+        out.append(Expected(t, ev.distance_m if ev.distance_m is not None else d, ev.size,
+                            ev.kind, path, tol_s, abs(d_hi - d)))
     return out
 
 
-def compare(analysis: Analysis, prediction, *, vf_tolerance: float = 0.0) -> Comparison:
-    """Match the found events with the predicted ones (see :class:`Comparison`).
+def compare(analysis: Analysis, prediction, segments, *, vf_tolerance: float = 0.0
+            ) -> Comparison:
+    """Match the found events with those predicted for the expected run
+    ``segments`` (the run ``prediction`` was made for; see :class:`Comparison`).
 
-    Matching: same sign of size; pairs are taken closest first (in units of
-    their tolerance), each event at most once.
+    Matching: same sign of size, re-reflections only with re-reflections;
+    pairs are taken closest first (in units of their tolerance, plus
+    :data:`KIND_PENALTY` when the kinds differ), each event at most once.
+    Offsets are between the placed distances (each with the loss's lag
+    taken off), or on the prediction's distance axis for an event that could
+    not be placed.
     """
-    expected = expected_events(prediction, analysis, vf_tolerance)
+    expected = expected_events(prediction, analysis, segments, vf_tolerance)
     lo, hi = analysis.start_delay_s, analysis.end_delay_s
     inside = [x for x in expected if lo <= x.round_trip_delay_s <= hi]
     outside = tuple(x for x in expected if not lo <= x.round_trip_delay_s <= hi)
     found = list(analysis.events)
     pairs = []
     for i, x in enumerate(inside):
-        reach = max(MISPLACED_TOLERANCES * x.tolerance_s, MISPLACED_REACH * x.round_trip_delay_s)
         for j, ev in enumerate(found):
+            if np.sign(ev.size) != np.sign(x.size):
+                continue
+            if (ev.kind == "re_reflection") != (x.kind == "re_reflection"):
+                continue  # a bounce is never taken for a first reflection
+            same = ev.kind == x.kind
+            reach = max(MISPLACED_TOLERANCES * x.tolerance_s,
+                        (MISPLACED_REACH_SAME if same else MISPLACED_REACH)
+                        * x.round_trip_delay_s)
             dt = ev.round_trip_delay_s - x.round_trip_delay_s
-            if abs(dt) <= reach and np.sign(ev.size) == np.sign(x.size):
-                pairs.append((abs(dt) / x.tolerance_s, i, j, dt))
+            if abs(dt) <= reach:
+                pairs.append((abs(dt) / x.tolerance_s + (0.0 if same else KIND_PENALTY),
+                              i, j, dt))
     pairs.sort()
     used_x, used_f = set(), set()
     matched, misplaced = [], []
-    for score, i, j, dt in pairs:
+    for _score, i, j, dt in pairs:
         if i in used_x or j in used_f:
             continue
         used_x.add(i)
         used_f.add(j)
         x, ev = inside[i], found[j]
-        d_found = ev.distance_m if ev.distance_m is not None else x.distance_m
+        if ev.distance_m is not None and not ev.beyond_end:
+            offset_m = ev.distance_m - x.distance_m  # both placed, the loss's lag taken off
+        else:
+            offset_m = float(np.interp(ev.round_trip_delay_s, prediction.time_s,
+                                       prediction.distance_m)
+                             - np.interp(x.round_trip_delay_s, prediction.time_s,
+                                         prediction.distance_m))
         size_differs = abs(ev.size - x.size) > max(0.3 * abs(x.size), 3 * analysis.threshold)
-        pairing = Pairing(x, ev, dt, d_found - x.distance_m, size_differs, ev.kind != x.kind)
-        (matched if score <= 1.0 else misplaced).append(pairing)
+        pairing = Pairing(x, ev, dt, offset_m, size_differs, ev.kind != x.kind)
+        (matched if abs(dt) <= x.tolerance_s else misplaced).append(pairing)
     missing = tuple(x for i, x in enumerate(inside) if i not in used_x)
     unexpected = tuple(ev for j, ev in enumerate(found) if j not in used_f)
     return Comparison(tuple(matched), tuple(misplaced), missing, unexpected, outside,

@@ -169,3 +169,9 @@ def text_plot(x, y, width: int = 72, height: int = 11, x_label=None) -> list[str
         gap = max(1, (width - len(left) - len(mid) - len(right)) // 2)
         lines.append(" " * 8 + left + " " * gap + mid + " " * gap + right)
     return lines
+
+
+def component(value: float, unit: str, digits: int = 3) -> str:
+    """An inductance (``"H"``) or capacitance (``"F"``) with an SI prefix: ``"6.1 nH"``."""
+    return _scaled(value, unit, ((1.0, ""), (1e-3, "m"), (1e-6, "u"), (1e-9, "n"),
+                                 (1e-12, "p"), (1e-15, "f")), digits)

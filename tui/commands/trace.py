@@ -26,6 +26,8 @@ LOGGABLE = True
 #: Largest file read (bytes): a million-sample text trace is about 20 MB.
 MAX_FILE_BYTES = 256 * 1024 * 1024
 _WIDTH = 80
+#: Re-reflections listed one by one; the rest are counted.
+SHOWN_BOUNCES = 3
 
 
 def add_arguments(parser) -> None:
@@ -50,6 +52,9 @@ def add_arguments(parser) -> None:
     read.add_argument("--axis-vf", metavar="X",
                       help="velocity factor the instrument used to draw a distance axis "
                            "(default: the cable's)")
+    read.add_argument("--rise-time", metavar="T",
+                      help="the trace's 10-90 %% rise time, e.g. '0.5 ns' (default: measured "
+                           "from the incident edge, or estimated)")
     read.add_argument("--incident", choices=("auto", "in-trace", "at-zero"), default="auto",
                       help="the incident edge is in the trace (volt traces), or the trace holds "
                            "reflections only with the reference plane at 0 (rho traces, "
@@ -150,10 +155,12 @@ class _Setup:
         self.segments = None
         self.vf = None
         self.vf_tolerance = 0.0
+        self.cable = None
         if resolved is not None:
             self.vf = resolved.velocity.vf
             self.vf_tolerance = resolved.tolerance
             self.source = resolved.source
+            self.cable = resolved.cable
             cable_z0 = resolved.cable.z0_ohm if resolved.cable is not None else None
         else:
             self.segments = _run(args.run, "--run", tolerance)
@@ -165,6 +172,7 @@ class _Setup:
             self.z0 = cable_z0 or 50.0
         self.z0_note = None if (args.z0 or cable_z0) else "reference impedance taken as 50 ohm"
         self.axis_vf = parse(args.axis_vf, "--axis-vf", "vf") if args.axis_vf else self.vf
+        self.tolerance = tolerance
 
 
 # ----------------------------------------------------------------- the work
@@ -177,6 +185,7 @@ def analyse_file(args):
     from calc import events as ev
     from calc.constants import C0_M_PER_S
     from calc.errors import InputError
+    from calc.parse import parse
     from calc.tdr import time_domain
     from calc.trace_read import Sweep, read_file
 
@@ -187,14 +196,14 @@ def analyse_file(args):
     info: dict = {"file": args.file, "z0_ohm": setup.z0, "velocity_source": setup.source}
     notes: list[str] = [setup.z0_note] if setup.z0_note else []
     ringing = 0.0
-    rise = None
+    rise = parse(args.rise_time, "--rise-time", "time") if args.rise_time else None
     if isinstance(got, Sweep):
         td = time_domain(got.frequency_hz, got.s11, window=args.window,
                          kaiser_beta=args.kaiser_beta, band_hz=_band(args.band),
                          dc_value=_dc(args.dc, setup.z0))
         time_s, level = td.time_s, td.step
         incident = False
-        rise, ringing = td.rise_time_s, td.ringing
+        rise, ringing = rise or td.rise_time_s, td.ringing
         notes += list(td.notes)
         info.update(format="touchstone", points=int(got.frequency_hz.size),
                     file_z0_ohm=got.file_z0_ohm, time_domain={
@@ -224,13 +233,111 @@ def analyse_file(args):
     analysis = ev.analyse(np.asarray(time_s), np.asarray(level), z0_ohm=setup.z0,
                           incident_edge=incident, rise_time_s=rise, ringing=ringing)
     if setup.segments is None:
-        analysis = ev.place(analysis, vf=setup.vf, vf_tolerance=setup.vf_tolerance)
+        analysis = ev.place(analysis, vf=setup.vf, vf_tolerance=setup.vf_tolerance,
+                            cable=setup.cable)
     else:
         analysis = ev.place(analysis, segments=setup.segments)
+    if setup.cable is None and setup.segments is None:
+        notes.append("no loss model with a bare velocity: far events read smaller than they "
+                     "are; give --cable or --run for the cable's loss")
     return setup, info, notes, analysis
 
 
-def event_record(e) -> dict:
+def compare_with_expected(args, setup, analysis):
+    """The comparison with ``--expect-run``/``--expect-load``, or None without them."""
+    from calc import events as ev
+    from calc.errors import InputError
+    from calc.loads import parse_load
+    from calc.simulate import simulate
+    from tui.commands.common import catalog
+
+    if not (args.expect_run or args.expect_load):
+        return None
+    if not (args.expect_run and args.expect_load):
+        raise InputError("--expect-run/--expect-load", "give both the expected run and the "
+                         "load it should end in", "--expect-load open")
+    segments = _run(args.expect_run, "--expect-run")
+    load = parse_load(args.expect_load, "--expect-load", lookup=catalog().get)
+    pieces = ev.run_segments(segments)
+    round_trip = 2.0 * sum(p.delay_s for p in pieces)
+    span = analysis.end_delay_s if analysis.end_delay_s >= 1.05 * round_trip else None
+    prediction = simulate(pieces, load, rise_time_s=analysis.rise_time_s, span_s=span)
+    tolerance = setup.tolerance if setup.tolerance is not None else \
+        max(s.cable.vf_tolerance for s in segments)
+    return ev.compare(analysis, prediction, segments, vf_tolerance=tolerance)
+
+
+def expected_record(x) -> dict:
+    return {"round_trip_delay_s": x.round_trip_delay_s, "distance_m": x.distance_m,
+            "size": x.size, "kind": x.kind, "path": x.path, "tolerance_s": x.tolerance_s,
+            "tolerance_m": x.tolerance_m}
+
+
+def pairing_record(p, events, z0_ohm: float) -> dict:
+    return {"expected": expected_record(p.expected),
+            "found": event_record(p.found, z0_ohm, events),
+            "event_number": events.index(p.found) + 1, "offset_s": p.offset_s,
+            "offset_m": p.offset_m, "size_differs": p.size_differs,
+            "kind_differs": p.kind_differs}
+
+
+def comparison_data(cmp, analysis) -> dict:
+    events = list(analysis.events)
+    return {
+        "matched": [pairing_record(p, events, analysis.z0_ohm) for p in cmp.matched],
+        "misplaced": [pairing_record(p, events, analysis.z0_ohm) for p in cmp.misplaced],
+        "missing": [expected_record(x) for x in cmp.missing],
+        "unexpected": [{**event_record(e, analysis.z0_ohm, events),
+                        "event_number": events.index(e) + 1} for e in cmp.unexpected],
+        "outside_window": [expected_record(x) for x in cmp.outside],
+        "vf_tolerance": cmp.vf_tolerance,
+    }
+
+
+def describe_comparison(cmp, analysis, units: str, fraction: int) -> list[str]:
+    """Human lines for a :class:`calc.events.Comparison`."""
+    from calc.events import TOLERANCE_RISE_TIMES
+    from tui import fmt
+
+    events = list(analysis.events)
+
+    def at(d):
+        return fmt.length(d, units, fraction)
+
+    def num(e):
+        return f"#{events.index(e) + 1}"
+
+    lines = ["", "against the expected run:"]
+    if cmp.matched:
+        lines.append("  as expected: " + ", ".join(
+            num(p.found) + (" (size differs)" if p.size_differs else "") for p in cmp.matched))
+    bounces = [e for e in cmp.unexpected if e.kind == "re_reflection"]
+    for e in cmp.unexpected:
+        if e.kind == "re_reflection" and len(bounces) > SHOWN_BOUNCES:
+            continue
+        lines.append(f"  unexpected: {num(e)} {_kind_text(e.kind)} at "
+                     f"{at(e.distance_m) if e.distance_m is not None else '-'}")
+    if len(bounces) > SHOWN_BOUNCES:
+        lines.append(f"  unexpected: {len(bounces)} re-reflections ({num(bounces[0])} to "
+                     f"{num(bounces[-1])}), second trips between the mismatches above")
+    for x in cmp.missing:
+        lines.append(f"  missing: {_kind_text(x.kind)} expected at {at(x.distance_m)} "
+                     f"({fmt.time(x.round_trip_delay_s)}; {x.path or 'predicted'})")
+    for p in cmp.misplaced:
+        way = "farther" if p.offset_m > 0 else "nearer"
+        lines.append(f"  misplaced: {num(p.found)} {_kind_text(p.found.kind)} is "
+                     f"{at(abs(p.offset_m))} {way} than expected ({at(p.expected.distance_m)}, "
+                     f"tolerance {at(p.expected.tolerance_m)})")
+    if cmp.outside:
+        lines.append(f"  {len(cmp.outside)} expected event(s) lie outside the recorded window")
+    if not (cmp.unexpected or cmp.missing or cmp.misplaced):
+        lines.append("  every event is where the expected run puts it")
+    lines.append(f"  (matched within {TOLERANCE_RISE_TIMES:g} rise times plus the cables' VF "
+                 f"tolerance, {cmp.vf_tolerance * 100:.3g} % of the delay)")
+    return _fit(lines)
+
+
+def event_record(e, z0_ohm: float, events=()) -> dict:
     """One event as a JSON record (shared with the TUI's export)."""
     return {
         "round_trip_delay_s": e.round_trip_delay_s,
@@ -242,6 +349,9 @@ def event_record(e) -> dict:
         "offset_in_segment_m": e.offset_in_segment_m,
         "beyond_end": e.beyond_end,
         "at_far_end": e.at_far_end,
+        "joint_index": e.joint_index,
+        "loss_delay_s": e.loss_delay_s,
+        "loss_scale": e.loss_scale,
         "size": e.size,
         "level_before": e.level_before,
         "level_after": e.level_after,
@@ -250,17 +360,82 @@ def event_record(e) -> dict:
         "shape": e.shape,
         "kind": e.kind,
         "confidence": e.confidence,
-        "description": e.description,
+        "description": describe_event(e, z0_ohm, events),
         "snr": e.snr,
         "time_constant_s": e.time_constant_s,
         "capacitance_f": e.capacitance_f,
         "inductance_h": e.inductance_h,
         "alternatives": list(e.alternatives),
+        "bounce_of_events": None if e.bounce_of is None else [k + 1 for k in e.bounce_of],
     }
 
 
 def _kind_text(kind: str) -> str:
     return kind.replace("_", " ")
+
+
+def describe_event(e, z0_ohm: float, events=()) -> str:
+    """One plain sentence on what the event probably is (shared with the TUI).
+
+    The wording says what else it could be; it never says a line is safe.
+    """
+    from calc.events import implied_impedance
+    from tui import fmt
+
+    def z_text(level: float) -> str:
+        z = implied_impedance(level, z0_ohm)
+        return "an open" if z == float("inf") else fmt.impedance(z, 3)
+
+    loss = " (allowing for the cable's loss)" if e.loss_scale < 0.98 else ""
+    at_end = " at the end of the run" if e.at_far_end else ""
+    kind = e.kind
+    if kind == "re_reflection":
+        if e.bounce_of is not None and events:
+            a, b = (events[k] for k in e.bounce_of)
+            return (f"{e.size:+.3f}, timed as a second trip between the reflections at "
+                    f"{fmt.time(a.round_trip_delay_s)} and {fmt.time(b.round_trip_delay_s)}: "
+                    "a re-reflection, not a fault of its own")
+        return (f"{e.size:+.3f} after the far end (an open, a short or the end of the described "
+                "run): most likely a re-reflection, the wave's second trip between two "
+                "mismatches; or the run is longer than described")
+    if kind == "open":
+        return (f"rises to {e.level_after:+.3f}{loss}: an open{at_end}, or a very high "
+                "impedance (a broken centre conductor, an unterminated end)")
+    if kind == "short":
+        return (f"falls to {e.level_after:+.3f}{loss}: a short{at_end}, or a very low "
+                "impedance (a crushed or shorted cable, water in a connector)")
+    if kind == "end_of_run":
+        return f"step of {e.size:+.3f} at the far end of the run: a load of about " \
+               f"{z_text(e.level_after)}"
+    settles = f"it settles to {e.level_settled:+.3f}, {z_text(e.level_settled)}"
+    tau = f", time constant about {fmt.time(e.time_constant_s, 3)}" if e.time_constant_s else ""
+    if kind == "inductive_load" and e.shape == "bump":
+        return (f"brief bump of {e.size:+.3f} at the far end: a load with about "
+                f"{fmt.component(e.inductance_h or 0.0, 'H')} in series ({settles})")
+    if kind == "capacitive_load" and e.shape == "dip":
+        return (f"brief dip of {e.size:+.3f} at the far end: a load with about "
+                f"{fmt.component(e.capacitance_f or 0.0, 'F')} across it ({settles})")
+    if kind == "capacitive_load":
+        return (f"falls like a short, then relaxes upward ({settles}{tau}): a capacitive load "
+                "or a capacitor across the line")
+    if kind == "inductive_load":
+        return (f"rises like an open, then relaxes downward ({settles}{tau}): an inductive "
+                "load or an inductance in series")
+    if kind == "inductive_bump":
+        return (f"brief bump of {e.size:+.3f}: a series inductance of about "
+                f"{fmt.component(e.inductance_h or 0.0, 'H')} (a connector, a splice, a "
+                "pigtail) or a short piece of higher impedance")
+    if kind == "capacitive_dip":
+        return (f"brief dip of {e.size:+.3f}: a shunt capacitance of about "
+                f"{fmt.component(e.capacitance_f or 0.0, 'F')} (a connector, a kink or crushed "
+                "spot, a tap) or a short piece of lower impedance")
+    tail = (f" or, if the run ends here, a load of about {z_text(e.level_after)}"
+            if "end_of_run" in e.alternatives else "")
+    if kind == "higher_impedance":
+        return (f"step up of {e.size:+.3f} to about {z_text(e.level_after)}: a higher-impedance "
+                f"section (a different cable, a stretched or damaged spot){tail}")
+    return (f"step down of {e.size:+.3f} to about {z_text(e.level_after)}: a lower-impedance "
+            f"section (water in the cable, a crushed spot, a different cable){tail}")
 
 
 def _where(e, units: str, fraction: int) -> str:
@@ -277,11 +452,16 @@ def _where(e, units: str, fraction: int) -> str:
             and e.distance_high_m > e.distance_low_m:
         parts.append(f"{fmt.length(e.distance_low_m, units, fraction)} to "
                      f"{fmt.length(e.distance_high_m, units, fraction)}")
-    if e.segment_index is not None:
+    if e.joint_index is not None:
+        parts.append(f"at or near the joint of segments {e.joint_index + 1} and "
+                     f"{e.joint_index + 2}")
+    elif e.segment_index is not None:
         parts.append(f"segment {e.segment_index + 1} ({e.cable_id}), "
                      f"{fmt.length(e.offset_in_segment_m, units, fraction)} into it")
     if e.at_far_end:
         parts.append("at the far end")
+    if e.loss_delay_s > 0:
+        parts.append(f"placed {fmt.time(e.loss_delay_s, 3)} earlier for the loss's slower edge")
     return "; ".join(parts)
 
 
@@ -308,18 +488,35 @@ def describe(info: dict, notes: list[str], analysis, units: str, fraction: int) 
         lines.append("")
         lines.append(f"{'#':>2}  {'delay':>10}  {'distance':>15}  {'size':>7}  {'Z ohm':>7}  "
                      f"{'kind':<17} {'conf':>4}")
+        bounces = 0
         for i, e in enumerate(a.events, start=1):
+            if e.kind == "re_reflection":
+                bounces += 1
+                if bounces > SHOWN_BOUNCES:
+                    continue
             z = "open" if e.impedance_ohm == float("inf") else f"{e.impedance_ohm:.4g}"
             dist = "-" if e.distance_m is None else fmt.length(e.distance_m, units, fraction)
             lines.append(f"{i:>2}  {fmt.time(e.round_trip_delay_s):>10}  {dist:>15}  "
                          f"{e.size:+7.3f}  {z:>7}  {_kind_text(e.kind):<17} {e.confidence:4.2f}")
             where = _where(e, units, fraction)
-            for text in ([where] if where else []) + [e.description]:
+            for text in ([where] if where else []) + [describe_event(e, a.z0_ohm, a.events)]:
                 lines += textwrap.wrap(text, _WIDTH, initial_indent="    ",
                                        subsequent_indent="    ")
+        if bounces > SHOWN_BOUNCES:
+            lines.append(f"    ... and {bounces - SHOWN_BOUNCES} more re-reflections "
+                         "(all of them with --json)")
     for note in list(a.notes) + notes:
         lines += textwrap.wrap("note: " + note, _WIDTH, subsequent_indent="      ")
-    return lines
+    return _fit(lines)
+
+
+def _fit(lines: list[str]) -> list[str]:
+    """Lines wrapped to the 80 columns of a field laptop's terminal."""
+    out = []
+    for line in lines:
+        out += textwrap.wrap(line, _WIDTH, subsequent_indent="    ",
+                             break_on_hyphens=False) if len(line) > _WIDTH else [line]
+    return out
 
 
 def run(args) -> int:
@@ -333,8 +530,13 @@ def run(args) -> int:
         "sample_interval_s": a.sample_interval_s,
         "noise_rms": a.noise_rms,
         "threshold": a.threshold,
-        "events": [event_record(e) for e in a.events],
+        "events": [event_record(e, a.z0_ohm, a.events) for e in a.events],
         "notes": list(a.notes) + notes,
     }
     lines = describe(info, notes, analysis, units, fraction)
+    cmp = compare_with_expected(args, setup, analysis)
+    if cmp is not None:
+        data.update(expected_run=args.expect_run, expected_load=args.expect_load,
+                    **comparison_data(cmp, analysis))
+        lines += describe_comparison(cmp, analysis, units, fraction)
     return emit(args, data, lines)

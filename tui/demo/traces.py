@@ -17,7 +17,7 @@ ship). The scenarios:
   slower), and the antenna has been unplugged at the top (open end).
   ``kestrel-ridge-feeder.csv`` is the reflectometer's volt trace (time in
   ns), ``kestrel-ridge-feeder.s1p`` the same feeder swept by an analyser
-  (1 MHz to 1 GHz, 50 ohm reference).
+  (0.5 MHz to 1 GHz in 0.5 MHz steps, 50 ohm reference).
 * **12 Millpond Lane** (invented): an 18 m rg6 drop to a wall outlet, with a
   crushed spot 11 m out (about 4 pF across the line) and water in the wall
   plate's connector (about 8 ohm). ``millpond-lane-drop.csv`` holds the level
@@ -58,7 +58,7 @@ KESTREL_EVENTS = (
 )
 MILLPOND_EVENTS = (
     TrueEvent(11.0, "capacitive_dip"),
-    TrueEvent(18.0, "end_of_run"),
+    TrueEvent(18.0, "short"),  # 8 ohm on 75 ohm: rho = -0.81, past the short limit of -0.8
 )
 
 
@@ -141,7 +141,7 @@ def kestrel_sweep(seed: int = 2) -> tuple[np.ndarray, np.ndarray]:
     from calc.loads import parse_load
     from calc.simulate import reflection_spectrum
 
-    f = np.arange(1, 1001) * 1e6
+    f = np.arange(1, 2001) * 0.5e6  # 0.5 MHz steps: a 2 us window, fine for a 48.5 m run
     s11 = reflection_spectrum(kestrel_segments(), parse_load("open"), f, lumps=kestrel_lumps())
     rng = np.random.default_rng(seed)
     return f, s11 + 1e-3 * (rng.normal(size=f.size) + 1j * rng.normal(size=f.size))
@@ -165,7 +165,7 @@ _HEADER = ("# halftrip demo data: an invented scenario made by halftrip's own pr
 
 
 def write_demo_files(directory: Path = DEMO_DIR) -> list[Path]:
-    """Write the demo traces into ``directory``; returns the paths written."""
+    """Write the demo traces into ``directory`` (readable by all); returns the paths."""
     from cable_catalog.loader import atomic_write_text
     from calc.constants import FOOT_M
 
@@ -192,6 +192,8 @@ def write_demo_files(directory: Path = DEMO_DIR) -> list[Path]:
     lines += [f"{a / FOOT_M:.4f}\t{b:.5f}\n" for a, b in zip(d, r, strict=True)]
     written.append(directory / "millpond-lane-drop.csv")
     atomic_write_text(written[-1], "".join(lines))
+    for path in written:
+        path.chmod(0o644)
     return written
 
 
