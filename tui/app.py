@@ -78,7 +78,9 @@ class HalftripApp(App[int]):
 
     # ----------------------------------------------------------------- layout
     def compose(self) -> ComposeResult:
-        yield PanelBar(self.PANELS, self.unit_system)
+        bar = PanelBar(self.PANELS, self.unit_system)
+        bar.set_reactive(PanelBar.current, self._start_panel)  # `halftrip demo --panel trace`
+        yield bar
         with ContentSwitcher(initial=self._start_panel, id="panels"):
             for spec in self.PANELS:
                 if spec.name == self._start_panel:

@@ -15,10 +15,16 @@ class MarkTable(DataTable):
     def on_mount(self) -> None:
         self.add_columns(*self.columns_text)
 
-    def fill(self, rows: list[tuple[str, ...]]) -> None:
-        """Replace the rows, keeping the highlighted number where it still exists."""
+    def fill(self, rows: list[tuple[str, ...]], columns: tuple[str, ...] | None = None) -> None:
+        """Replace the rows (and the columns, if given and different), keeping the
+        highlighted number where it still exists."""
         keep = self.highlighted_key()
-        self.clear()
+        if columns is not None and columns != self.columns_text:
+            self.clear(columns=True)
+            self.columns_text = columns
+            self.add_columns(*columns)
+        else:
+            self.clear()
         for row in rows:
             self.add_row(*row, key=row[0])
         if keep is not None:

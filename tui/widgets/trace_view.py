@@ -31,6 +31,7 @@ class TraceShown:
     plot: PlotData
     rows: list[tuple[str, ...]]
     details: dict[str, str] = field(default_factory=dict)  # row key -> the line under the table
+    columns: tuple[str, ...] | None = None  # the table's columns, when they change
 
 
 class TraceView(Vertical):
@@ -69,7 +70,7 @@ class TraceView(Vertical):
         self.status.update(shown.status)
         self.plot.stale = False
         self.plot.show(shown.plot)
-        self.table.fill(shown.rows)
+        self.table.fill(shown.rows, shown.columns)
         self._show_detail(self.table.highlighted_key())
 
     def _show_detail(self, key: str | None) -> None:

@@ -1,9 +1,11 @@
 """The trace form: file, placement and expectation in; events, plot and comparison out.
 
-The file is read and analysed by :func:`tui.commands.trace.analyse_file`,
-the same call ``halftrip trace`` makes, with the options the fields stand
-for; the form runs it in a worker thread (``THREADED``) so a large file
-never holds up typing.
+The file is read, analysed and compared by the same calls ``halftrip trace``
+makes (:func:`tui.commands.trace.analyse_file` and
+:func:`~tui.commands.trace.compare_with_expected`), given the options the
+fields stand for, so the panel and the CLI show the same events. The form
+runs them in a worker thread (``THREADED``), so a large file never holds up
+typing.
 """
 
 from __future__ import annotations
@@ -13,39 +15,29 @@ from dataclasses import dataclass
 from textual.app import ComposeResult
 
 from calc.errors import InputError
-from tui.panels._readers import LOAD_PLACEHOLDER, load_reader, run_reader
 from tui.widgets.field import Field
 from tui.widgets.form import LiveForm
+from tui.widgets.readers import load_reader, run_reader
 from tui.widgets.trace_view import TraceShown, TraceView
 
-COLUMNS = ("#", "delay", "distance", "size", "Z ohm", "kind", "expected")
 FILE_LABEL = "file"
-ON_LABEL = "placed on"
 ON_EXAMPLE = "rg58, 0.66 or 2 m:rg58, 45 m:hardline-50-half"
 
 
 @dataclass(frozen=True, eq=False)
-class Expectation:
-    """The expected run, its prediction and the trace compared with it."""
-
-    run: tuple
-    prediction: object  # calc.simulate.Prediction
-    comparison: object  # calc.events.Comparison
-
-
-@dataclass(frozen=True, eq=False)
 class TraceResult:
-    """One analysed trace: what ``analyse_file`` returned, and the comparison."""
+    """One analysed trace: what the CLI's calls returned."""
 
-    setup: object  # the CLI's options, with the samples read (time_s, level)
+    setup: object  # the CLI's reading of the options, with the samples read (time_s, level)
     info: dict
     notes: tuple[str, ...]
     analysis: object  # calc.events.Analysis, placed
-    expected: Expectation | None
-    cable_ids: tuple[str, ...]  # a single catalog cable placed on
+    comparison: object | None  # calc.events.Comparison
+    prediction: object | None  # calc.simulate.Prediction of the expected run
+    expected_run: tuple = ()  # calc.run.RunSegment, for the cautions
 
 
-def read_text(text: str, label: str) -> str:
+def read_path(text: str, label: str) -> str:
     if not text.strip():
         raise InputError(label, "give the trace file's path (Ctrl+O picks one)",
                          "kestrel-ridge-feeder.csv")
@@ -65,16 +57,26 @@ def read_placement(text: str, label: str) -> tuple[str, str]:
     return "cable", t
 
 
+def checked_text(reader):
+    """A reader that checks the text with ``reader`` and keeps ``(text, value)``."""
+
+    def read(text: str, label: str):
+        return text.strip(), reader(text, label)
+
+    return read
+
+
 def read_vf_text(text: str, label: str) -> str:
     from calc.parse import parse
 
-    parse(text, label, "vf")  # checked here, so the error shows beside this field
+    parse(text, label, "vf")
     return text.strip()
 
 
-def trace_namespace(path: str, placement: tuple[str, str], axis_vf: str | None):
-    """The options ``halftrip trace`` would get for these fields (its own parser's
-    defaults for everything else)."""
+def trace_options(path: str, placement: tuple[str, str], expect_load: str | None,
+                  expect_run: str | None, axis_vf: str | None):
+    """The options ``halftrip trace`` gets for these fields (its own parser's
+    defaults for the rest). The expected run defaults to the run placed on."""
     import argparse
 
     from tui.commands import trace as command
@@ -85,6 +87,8 @@ def trace_namespace(path: str, placement: tuple[str, str], axis_vf: str | None):
     kind, text = placement
     setattr(ns, kind, text)
     ns.axis_vf = axis_vf
+    ns.expect_load = expect_load
+    ns.expect_run = expect_run or (text if expect_load and kind == "run" else None)
     return ns
 
 
@@ -92,7 +96,7 @@ def rho_trace(setup, analysis):
     """The recorded samples as the analysis reads them: time from the reference
     (the incident edge's midpoint, or 0) and level in rho (calc.events, step 1),
     from the earliest delay the analysis sees (the instrument's own edge and
-    dead zone before it are left out)."""
+    the dead zone are left out)."""
     t = setup.time_s - analysis.time_zero_s
     edge = analysis.incident
     level = setup.level if edge is None else (setup.level - edge.top) / edge.height
@@ -113,44 +117,50 @@ def distance_axis(time_s, setup):
 
 
 class TraceForm(LiveForm):
-    """File, placement (cable, VF or run), expected load and run, distance-axis VF."""
+    """File, placement (cable, VF or run), expected load and run; distance-axis VF
+    (shown when a file drawn against distance needs it)."""
 
     THREADED = True
     ERROR_FIELDS = {"--cable/--vf/--run": "trace-on", "--run": "trace-on", "--cable": "trace-on",
-                    "--vf": "trace-on", "--tolerance": "trace-on", "--axis-vf": "trace-axis-vf",
+                    "--vf": "trace-on", "--z0": "trace-on", "--axis-vf": "trace-axis-vf",
+                    "--expect-run/--expect-load": "trace-expect-run",
                     "--expect-run": "trace-expect-run", "--expect-load": "trace-expect-load",
-                    "trace": "trace-file", "--z0": "trace-on"}
+                    "trace": "trace-file", "--incident": "trace-file"}
 
     def compose(self) -> ComposeResult:
-        yield Field("trace-file", FILE_LABEL, reader=read_text,
-                    placeholder="path of a .csv or .s1p (Ctrl+O picks)")
-        yield Field("trace-on", ON_LABEL, reader=read_placement, placeholder=ON_EXAMPLE)
-        yield Field("trace-expect-load", "expected load", reader=load_reader(self.app),
-                    optional=True, placeholder=f"to compare: {LOAD_PLACEHOLDER}")
-        yield Field("trace-expect-run", "expected run", reader=run_reader(self.app),
-                    optional=True, placeholder="the run above, unless given")
+        catalog = (lambda: self.app.catalog)  # noqa: E731
+        yield Field("trace-file", FILE_LABEL, reader=read_path,
+                    placeholder="a .csv or .s1p file (Ctrl+O picks one)")
+        yield Field("trace-on", "placed on", reader=read_placement, placeholder=ON_EXAMPLE)
+        yield Field("trace-expect-load", "expected load", reader=checked_text(load_reader(catalog)),
+                    optional=True, placeholder="to compare: open, 50 ohm...")
+        yield Field("trace-expect-run", "expected run", reader=checked_text(run_reader(catalog)),
+                    optional=True, placeholder="the run placed on, unless given")
         axis = Field("trace-axis-vf", "axis VF", reader=read_vf_text, optional=True,
                      placeholder="VF the instrument drew its distance axis with")
         axis.display = False
         yield axis
-        yield TraceView(COLUMNS, empty_text="no trace yet", id="trace-view")
+        yield TraceView(("#",), empty_text="no trace yet", id="trace-view")
 
     def result_view(self) -> TraceView:
         return self.query_one(TraceView)
 
     def compute(self, values):
-        from tui.commands.trace import analyse_file
+        from tui.commands.trace import analyse_file, compare_with_expected
 
         path = values["trace-file"]
-        ns = trace_namespace(path, values["trace-on"], values["trace-axis-vf"])
+        load = values["trace-expect-load"]
+        run = values["trace-expect-run"]
+        ns = trace_options(path, values["trace-on"], load and load[0], run and run[0],
+                           values["trace-axis-vf"])
         try:
             setup, info, notes, analysis = analyse_file(ns)
         except InputError as exc:
             raise self._as_file_error(exc, path) from None
-        placement = values["trace-on"]
-        cable_ids = (placement[1],) if placement[0] == "cable" else ()
-        return TraceResult(setup, info, tuple(notes), analysis,
-                           self._expectation(values, setup, analysis), cable_ids)
+        comparison = compare_with_expected(ns, setup, analysis)
+        expected = run[1] if run else (setup.segments or ()) if comparison else ()
+        return TraceResult(setup, info, tuple(notes), analysis, comparison,
+                           getattr(setup, "prediction", None), tuple(expected))
 
     @staticmethod
     def _as_file_error(exc: InputError, path: str) -> InputError:
@@ -161,33 +171,10 @@ class TraceForm(LiveForm):
             return InputError(FILE_LABEL, problem, exc.example)
         return exc
 
-    def _expectation(self, values, setup, analysis):
-        """(prediction, comparison) for the expected run and load, or None."""
-        load = values["trace-expect-load"]
-        if load is None:
-            return None
-        from calc import events as ev
-        from calc.simulate import simulate
-
-        run = values["trace-expect-run"] or setup.segments
-        if run is None:
-            raise InputError("expected run", "needed to compare: the trace is placed on one "
-                             "cable, not a run", "2 m:rg58, 45 m:hardline-50-half")
-        from calc.locate import run_junctions
-
-        far_end = run_junctions(run)[-1].round_trip_delay_s
-        span = analysis.end_delay_s if analysis.end_delay_s > far_end else None
-        prediction = simulate(ev.run_segments(run), load, rise_time_s=analysis.rise_time_s,
-                              span_s=span)
-        tolerance = max(s.cable.vf_tolerance for s in run)
-        return Expectation(run, prediction,
-                           ev.compare(analysis, prediction, vf_tolerance=tolerance))
-
     def hazards(self, result) -> tuple[str, ...]:
-        cables = [s.cable for s in result.setup.segments or ()]
-        cables += [self.catalog.cables[i] for i in result.cable_ids if i in self.catalog.cables]
-        if result.expected is not None:
-            cables += [s.cable for s in result.expected.run]
+        cables = [s.cable for s in (result.setup.segments or ())]
+        cables += [result.setup.cable] if result.setup.cable is not None else []
+        cables += [s.cable for s in result.expected_run]
         return tuple(tag for c in cables for tag in c.hazards)
 
     def describe(self, result) -> TraceShown:
