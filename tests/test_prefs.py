@@ -75,7 +75,8 @@ def test_update_keeps_tables_written_meanwhile_by_another_module():
     from tui.prefs import update_preferences
 
     update_preferences(units="imperial")
-    safety.acknowledge()  # the safety notice writes its own [safety] table
+    # the safety notice writes its own [safety] table
+    update_preferences(sections={safety.PREFS_TABLE: safety.acknowledgement()})
     prefs, problem = update_preferences(fraction=32)
     assert problem is None
     data = tomllib.loads(preferences_path().read_text(encoding="utf-8"))
