@@ -64,8 +64,10 @@ MAX_AUTO_POINTS = 1 << 18
 MAX_FFT = 1 << 21
 #: Arrivals smaller than this (fraction of the incident step) are not listed.
 ARRIVAL_CUTOFF = 1e-3
+#: Bounces are followed down to this size; the window holds every one of them.
+TAIL_CUTOFF = 1e-4
 #: The stretch of the fine period after everything must move less than this.
-QUIET_LEVEL = 2e-4
+QUIET_LEVEL = 1e-4
 MAX_ARRIVALS = 100
 MAX_EXPANSIONS = 1000
 #: The coarse grid's period, in fine periods (see the module notes).
@@ -157,7 +159,7 @@ class Prediction:
     time_s: np.ndarray
     distance_m: np.ndarray
     level: np.ndarray
-    arrivals: tuple[Arrival, ...]
+    arrivals: tuple[Arrival, ...]  # those that arrive within the span, in time order
     rise_time_s: float = math.nan
     pulse_width_s: float | None = None
     source_z_ohm: float = math.nan
@@ -283,39 +285,77 @@ class _Rational:
             return self.high * np.clip(t[:, 0] / rise_s, 0.0, 1.0)
         p, c = self.poles[None, :], (self.residues / self.poles)[None, :]
         inside = t <= rise_s
-        tt = np.where(inside, t, rise_s)
+        tt = np.clip(t, 0.0, rise_s)
         during = (self.high * tt + np.sum(c * (np.expm1(p * tt) / p - tt), axis=1,
                                            keepdims=True)) / rise_s
         after = self.high + np.sum(c * ((np.exp(p * t) - np.exp(p * (t - rise_s))) / (p * rise_s)
                                         - 1.0), axis=1, keepdims=True)
         return np.where(inside, during, after).real[:, 0]
 
-    def excursion(self, rise_s: float, settle_s: float) -> float:
-        """The dip or bump beyond the settled level that an edge of ``rise_s`` shows.
+    def edge_response(self, times_s: np.ndarray, rise_s: float) -> np.ndarray:
+        """Response to the instrument's edge: a step through a Gaussian of the rise time.
 
-        The extreme of the ramp response that lies outside the range from 0
+        For each real pole p the step's exponential meets the Gaussian (sigma)
+        in closed form, :math:`e^{pt + p^2\\sigma^2/2}\\,\\Phi((t + p\\sigma^2)/\\sigma)`;
+        a factor that rings (complex poles) is taken with a linear ramp instead.
+        """
+        t = np.asarray(times_s, dtype=float)
+        sigma = rise_s / RISE_PER_SIGMA
+        phi = _normal_cdf(t / sigma)
+        if self.constant or self.zero:
+            return self.high * phi
+        if np.any(np.abs(self.poles.imag) > 1e-9 * np.abs(self.poles)):
+            return self.ramp_response(t + 0.5 * rise_s, rise_s)
+        y = self.high * phi
+        for p, r in zip(self.poles.real, self.residues.real, strict=True):
+            z = -(t + p * sigma ** 2) / (sigma * math.sqrt(2.0))
+            far = z >= 5.0  # there exp(...) erfc(z) is computed as exp(-t^2/2s^2) erfcx(z)
+            e = np.empty_like(t)
+            e[far] = 0.5 * np.exp(-0.5 * (t[far] / sigma) ** 2) * _erfcx(z[far])
+            near = ~far
+            e[near] = 0.5 * np.exp(p * t[near] + 0.5 * (p * sigma) ** 2) * _erfc(z[near])
+            y = y + (r / p) * (e - phi)
+        return y
+
+    def _sample_times(self, rise_s: float, settle_s: float) -> np.ndarray:
+        sigma = rise_s / RISE_PER_SIGMA
+        taus = self.time_constants_s or [rise_s]
+        t = np.concatenate([sigma * np.linspace(-3.0, 4.0, 36),
+                            np.geomspace(0.01 * min(taus), 10.0 * max(taus), 48)])
+        return t[t <= settle_s] if math.isfinite(settle_s) else t
+
+    def excursion(self, rise_s: float, settle_s: float) -> float:
+        """The dip or bump beyond the settled level that the instrument's edge shows.
+
+        The extreme of the edge response that lies outside the range from 0
         to the settled level; the settled level itself when there is none.
         """
         final = self.step_at(settle_s)
-        taus = self.time_constants_s or [rise_s]
-        t = np.concatenate([rise_s * np.linspace(0.02, 1.0, 25),
-                            rise_s + np.geomspace(0.01 * min(taus), 10.0 * max(taus), 60)])
-        if math.isfinite(settle_s):
-            t = t[t <= settle_s]
-        y = self.ramp_response(t, rise_s)
+        y = self.edge_response(self._sample_times(rise_s, settle_s), rise_s)
         lo, hi = min(0.0, final), max(0.0, final)
         outside = np.maximum(y - hi, 0.0) + np.maximum(lo - y, 0.0)
         i = int(np.argmax(outside))
         return float(y[i]) if outside[i] > 1e-12 else final
 
     def edge_peak(self, rise_s: float) -> float:
-        """The largest magnitude of its response to the instrument's edge (ramp of ``rise_s``)."""
+        """The largest magnitude of its response to the instrument's edge."""
         if self.constant or self.zero:
             return abs(self.high)
-        taus = self.time_constants_s or [rise_s]
-        t = np.concatenate([rise_s * np.linspace(0.05, 1.0, 20),
-                            rise_s + np.geomspace(0.01 * min(taus), 10.0 * max(taus), 40)])
-        return float(max(np.max(np.abs(self.ramp_response(t, rise_s))), abs(self.dc)))
+        y = self.edge_response(self._sample_times(rise_s, math.inf), rise_s)
+        return float(max(np.max(np.abs(y)), abs(self.dc)))
+
+
+def _normal_cdf(x: np.ndarray) -> np.ndarray:
+    return 0.5 * _erfc(-np.asarray(x, dtype=float) / math.sqrt(2.0))
+
+
+_erfc = np.vectorize(math.erfc, otypes=[float])
+
+
+def _erfcx(z: np.ndarray) -> np.ndarray:
+    """exp(z^2) erfc(z) for z >= 5, by its asymptotic series (good to 1e-7 there)."""
+    inv = 1.0 / (z * z)
+    return (1.0 - 0.5 * inv + 0.75 * inv ** 2 - 1.875 * inv ** 3) / (z * math.sqrt(math.pi))
 
 
 @dataclass
@@ -558,7 +598,7 @@ class _Path:
 class _Bounces:
     paths: list  # _Path, in the order found
     truncated: bool
-    last_time_s: float  # latest arrival found above the cut-off
+    last_time_s: float  # latest arrival found above TAIL_CUTOFF
 
 
 def _power_scale(z_from: float, z_to: float) -> float:
@@ -607,6 +647,9 @@ def _hops(segments, junctions):
 def _expand(segments, junctions, load_factor: _Rational, source_z: float, rise_s: float,
             horizon_s: float) -> _Bounces:
     """Bounce paths above :data:`ARRIVAL_CUTOFF`, largest first, within ``horizon_s``.
+
+    Branches are followed down to :data:`TAIL_CUTOFF`, so that the latest
+    time anything of that size comes back is known (the window must hold it).
 
     Best-first over the tree of reflections and transmissions at every
     junction (transparent joints are crossed in one hop). A branch is rated
@@ -657,7 +700,7 @@ def _expand(segments, junctions, load_factor: _Rational, source_z: float, rise_s
     heap = [(-launch, 0, 0, +1, 0.0, t_in, (), 0.0, 0.0, 0.0, None)]
     counter = 0
     last = 0.0
-    cutoff = ARRIVAL_CUTOFF
+    cutoff = TAIL_CUTOFF
     push, pop = heapq.heappush, heapq.heappop
     expansions = 0
     while heap and expansions < MAX_EXPANSIONS:
@@ -667,8 +710,9 @@ def _expand(segments, junctions, load_factor: _Rational, source_z: float, rise_s
         time += delay
         k, a, g = k + loss[0], a + loss[1], g + loss[2]
         if arrives:
-            paths.append(_Path(time, -nb * out_scale, const * t_out, reactive, (k, a, g),
-                               events))
+            bound = -nb * out_scale
+            if bound >= ARRIVAL_CUTOFF:
+                paths.append(_Path(time, bound, const * t_out, reactive, (k, a, g), events))
             last = max(last, time)
         if time > horizon_s:
             continue
@@ -680,7 +724,7 @@ def _expand(segments, junctions, load_factor: _Rational, source_z: float, rise_s
             push(heap, (-bound, counter, nseg, ndir, time, const * c,
                         reactive if factor is None else reactive + (factor,), k, a, g,
                         (event, events)))
-    return _Bounces(paths, bool(heap), last)
+    return _Bounces(paths, bool(heap) and -heap[0][0] >= ARRIVAL_CUTOFF, last)
 
 
 def _path_text(events, names: dict, n_segments: int) -> str:
@@ -843,9 +887,11 @@ def _fast_length(n: int) -> int:
 
 
 def _cubic_at(t: np.ndarray, t0: float, dt: float, y: np.ndarray) -> np.ndarray:
-    """Four-point Lagrange interpolation of samples ``y`` (at ``t0 + k dt``) at times ``t``."""
-    y = np.concatenate([[2.0 * y[0] - y[1]], y])  # one sample before the first
-    x = (t - t0) / dt + 1.0
+    """Four-point Lagrange interpolation of samples ``y`` (at ``t0 + k dt``) at times ``t``.
+
+    ``t`` must lie between the second sample and the third from last.
+    """
+    x = (t - t0) / dt
     k = np.clip(np.floor(x).astype(int), 1, len(y) - 3)
     u = x - k
     um, u1, u2 = u + 1.0, u - 1.0, u - 2.0
@@ -853,7 +899,7 @@ def _cubic_at(t: np.ndarray, t0: float, dt: float, y: np.ndarray) -> np.ndarray:
             - um * u * u2 / 2.0 * y[k + 1] + um * u * u1 / 6.0 * y[k + 2])
 
 
-def _running_integral(spec: np.ndarray, n: int, keep: int) -> np.ndarray:
+def _running_integral(spec: np.ndarray, n: int, keep: int, before: int = 0) -> np.ndarray:
     r"""The step response (running integral of the impulse response) from its spectrum.
 
     ``spec`` holds the rfft bins of one period of ``n`` samples. Integrating
@@ -863,14 +909,16 @@ def _running_integral(spec: np.ndarray, n: int, keep: int) -> np.ndarray:
     .. math:: s_k = X_0 k/n + P_k - P_0,\quad
               P = \mathrm{irfft}\bigl(X_m / (j 2\pi m / n)\bigr)
 
-    Returns the first ``keep`` samples.
+    Returns the first ``keep`` samples (with ``before``, that many samples before
+    the first as well, from the end of the period).
     """
     m = np.arange(spec.size)
     y = np.empty_like(spec)
     y[0] = 0.0
     y[1:] = spec[1:] / (2j * math.pi * m[1:] / n)
-    p = np.fft.irfft(y, n)[:keep]
-    return spec[0].real * np.arange(keep) / n + (p - p[0])
+    p = np.fft.irfft(y, n)
+    k = np.arange(-before, keep)
+    return spec[0].real * k / n + (p[k] - p[0])
 
 
 def simulate(
@@ -996,15 +1044,16 @@ def simulate(
     spec_lo = _cascade(_Grid(f_lo), segments, junctions, load_factor, zs)
     spec_lo = spec_lo * excitation(f_lo, sigma_x, high=False)
     k_lo = int(math.ceil(window / dt_lo)) + 4
-    slow = _running_integral(spec_lo, n_lo, k_lo)
-    t_lo = np.arange(k_lo) * dt_lo - t_pre
+    slow = _running_integral(spec_lo, n_lo, k_lo, before=1)
+    t_lo = np.arange(-1, k_lo) * dt_lo - t_pre
     if amp.size:
         nodes = np.linspace(0.0, window + 4.0 * dt_lo, 65)
         slow -= np.interp(t_lo + t_pre, nodes, _slow_fold(t_a, amp, 1.0 / df_lo, nodes))
     time = np.arange(n) * dt - t_pre
-    level = level + _cubic_at(time, -t_pre, dt_lo, slow)
+    level = level + _cubic_at(time, -t_pre - dt_lo, dt_lo, slow)
 
-    arrivals = _finish_arrivals(bounces, segments, junctions, settle, tr, bool(pulse))
+    arrivals = tuple(a for a in _finish_arrivals(bounces, segments, junctions, settle, tr,
+                                                  bool(pulse)) if a.time_s <= span)
     return Prediction(
         time_s=time, distance_m=distance_from_round_trip(time, segments), level=level,
         arrivals=arrivals, rise_time_s=tr, pulse_width_s=pulse_width_s, source_z_ohm=zs,

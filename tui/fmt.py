@@ -162,7 +162,8 @@ def text_plot(x, y, width: int = 72, height: int = 11, x_label=None) -> list[str
         if np.isfinite(top[c]):
             for r in range(row(top[c]), row(bottom[c]) + 1):
                 grid[r][c] = "*"
-    labels = {0: f"{hi:+.2f}", zero: " 0", height - 1: f"{lo:+.2f}"}
+    labels = {0: f"{hi:+.2f}", height - 1: f"{lo:+.2f}"}
+    labels[zero] = "0"
     lines = [f"{labels.get(r, ''):>6} |" + "".join(grid[r]) for r in range(height)]
     if x_label is not None:
         left, mid, right = x_label(x[0]), x_label(0.5 * (x[0] + x[-1])), x_label(x[-1])

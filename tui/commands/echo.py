@@ -155,7 +155,7 @@ def _forward_report(args, s, through) -> tuple[dict, list[str]]:
     at = f" at {fmt.frequency(s.frequency_hz)}" if s.frequency_hz is not None else ""
     lines = [f"load               {args.load}  on a {fmt.impedance(s.z0_ohm)} line"]
     if z is not None:
-        lines.append(f"impedance{at:<10} {fmt.impedance(z)}")
+        lines.append(f"{'impedance' + at:<18} {fmt.impedance(z)}")
     lines += _figure_lines(s.gamma, s.return_loss_db, s.vswr, s.mismatch_loss_db,
                            "give --frequency for a reactive load's reflection")
     basis = "at that frequency" if s.frequency_hz is not None else "once settled"
@@ -270,9 +270,11 @@ def _backwards(args, z0: float) -> tuple[dict, list[str]]:
               "it could also be:"]
     lines += [f"  - {alt}" for alt in r.alternatives]
     if r.series_resistance_ohm is not None:
-        lines.append(f"  - as a resistance in series in a joint: {fmt.impedance(r.series_resistance_ohm)}")
+        lines.append(f"    (as a resistance in series in a joint: "
+                     f"{fmt.impedance(r.series_resistance_ohm)})")
     if r.shunt_resistance_ohm is not None:
-        lines.append(f"  - as a resistance across the line: {fmt.impedance(r.shunt_resistance_ohm)}")
+        lines.append(f"    (as a resistance across the line: "
+                     f"{fmt.impedance(r.shunt_resistance_ohm)})")
     lines.append("A level alone cannot tell these apart: look at what the trace does after "
                  "the step, and compare with 'halftrip simulate'.")
     return data, lines
