@@ -36,6 +36,8 @@ import numpy as np
 from textual.binding import Binding
 from textual.message import Message
 from textual.reactive import reactive
+from textual.strip import Strip
+from textual_hires_canvas import Canvas
 from textual_plot import HiResMode, PlotWidget
 from textual_plot.axis_formatter import NumericAxisFormatter
 
@@ -163,6 +165,24 @@ class _LevelTicks(NumericAxisFormatter):
         return super().get_ticks_and_labels(min_, max_, min(max_ticks, self.most))
 
 
+def _styled_lines(canvas: Canvas):
+    """``canvas.render_line`` that never returns a style-less empty strip.
+
+    textual-hires-canvas 0.14 answers a line its buffer does not cover yet (the
+    first frame, before the plot sizes its canvases) with an empty segment of
+    no style, which Textual's monochrome filter (NO_COLOR) cannot take.
+    """
+    render_line = canvas.render_line
+
+    def line(y: int) -> Strip:
+        strip = render_line(y)
+        if strip.cell_length == 0:
+            return Strip.blank(canvas.size.width, canvas.rich_style)
+        return strip
+
+    return line
+
+
 class TracePlot(PlotWidget, inherit_bindings=False):
     """Level against distance with numbered marks and a keyboard cursor.
 
@@ -248,6 +268,8 @@ class TracePlot(PlotWidget, inherit_bindings=False):
     # ------------------------------------------------------------- set-up
     def on_mount(self) -> None:
         super().on_mount()
+        for canvas in self.query(Canvas):
+            canvas.render_line = _styled_lines(canvas)
         self.margin_top = 0
         self.margin_bottom = 1
         self.margin_left = 6
