@@ -30,7 +30,8 @@ def read_edge(text: str, label: str) -> tuple[str, str] | None:
         if low.startswith(word):
             t, low = t[len(word):].strip(), low[len(word):].strip()
     if not t:
-        raise InputError(label, "give the time", EDGE_EXAMPLE)
+        what = "a pulse needs its width" if option == "pulse_width" else "give the rise time"
+        raise InputError(label, what, EDGE_EXAMPLE)
     parse(t, label, "time")
     return option, t
 
