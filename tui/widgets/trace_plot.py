@@ -224,9 +224,9 @@ class TracePlot(PlotWidget, inherit_bindings=False):
         border-title-color: $text;
         & > .trace-plot--line { color: $text; }
         & > .trace-plot--other-line { color: $text-muted; }
-        & > .trace-plot--mark { color: $text-accent; text-style: bold; }
+        & > .trace-plot--mark { color: $text-primary; text-style: bold; }
         & > .trace-plot--other-mark { color: $text-muted; text-style: bold; }
-        & > .trace-plot--cursor { color: $text-primary; }
+        & > .trace-plot--cursor { color: $text-secondary; }
         & > .plot--axis { color: $text-muted; }
         & > .plot--tick { color: $text-muted; text-style: none; }
         &:focus { border-top: heavy $primary; }
@@ -389,8 +389,8 @@ class TracePlot(PlotWidget, inherit_bindings=False):
     def notify_style_update(self) -> None:
         """Theme changed: styles are read again (they are baked into the datasets)."""
         super().notify_style_update()
-        if self.is_mounted:
-            self._draw()
+        if self.is_mounted:  # after the refresh, when the component styles are the new ones
+            self.call_after_refresh(self._draw)
 
     def on_resize(self) -> None:
         self._draw()

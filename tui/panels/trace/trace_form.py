@@ -10,6 +10,7 @@ typing.
 
 from __future__ import annotations
 
+import copy
 from dataclasses import dataclass
 
 from textual.app import ComposeResult
@@ -35,6 +36,17 @@ class TraceResult:
     comparison: object | None  # calc.events.Comparison
     prediction: object | None  # calc.simulate.Prediction of the expected run
     expected_run: tuple = ()  # calc.run.RunSegment, for the cautions
+
+
+def _file_key(path: str) -> tuple:
+    """The file as it is now (a changed or rewritten file is read again)."""
+    from pathlib import Path
+
+    try:
+        st = Path(path).expanduser().stat()
+    except OSError:
+        return (path, None)
+    return (path, st.st_mtime_ns, st.st_size)
 
 
 def read_path(text: str, label: str) -> str:
@@ -121,6 +133,9 @@ class TraceForm(LiveForm):
     (shown when a file drawn against distance needs it)."""
 
     THREADED = True
+    #: (file, placement, axis VF) -> what analyse_file returned: typing in the
+    #: expectation fields compares again without reading the file again.
+    _analysed: tuple | None = None
     ERROR_FIELDS = {"--cable/--vf/--run": "trace-on", "--run": "trace-on", "--cable": "trace-on",
                     "--vf": "trace-on", "--z0": "trace-on", "--axis-vf": "trace-axis-vf",
                     "--expect-run/--expect-load": "trace-expect-run",
@@ -153,10 +168,17 @@ class TraceForm(LiveForm):
         run = values["trace-expect-run"]
         ns = trace_options(path, values["trace-on"], load and load[0], run and run[0],
                            values["trace-axis-vf"])
-        try:
-            setup, info, notes, analysis = analyse_file(ns)
-        except InputError as exc:
-            raise self._as_file_error(exc, path) from None
+        key = (_file_key(path), values["trace-on"], values["trace-axis-vf"])
+        cached = self._analysed
+        if cached is not None and cached[0] == key:
+            setup, info, notes, analysis = cached[1]
+        else:
+            try:
+                setup, info, notes, analysis = analyse_file(ns)
+            except InputError as exc:
+                raise self._as_file_error(exc, path) from None
+            self._analysed = (key, (setup, info, notes, analysis))
+        setup = copy.copy(setup)  # the comparison notes its prediction on it
         comparison = compare_with_expected(ns, setup, analysis)
         expected = run[1] if run else (setup.segments or ()) if comparison else ()
         return TraceResult(setup, info, tuple(notes), analysis, comparison,
