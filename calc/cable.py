@@ -92,44 +92,50 @@ def cable_propagation_constant(cable: Cable, frequency_hz: np.ndarray | float) -
 
 #: Frequency at which the causal dielectric-loss phase term is zero: the
 #: catalog VF is taken to hold there in a time-domain prediction
-#: (see :func:`propagation_terms`).
+#: (see :func:`causal_line_coefficients`).
 DIELECTRIC_REF_HZ = 1e9
 
 
-def propagation_terms(
+def causal_line_coefficients(
     vf: float, k1: float | None = None, k2: float | None = None
-) -> tuple[complex, complex, complex]:
-    r"""The causal propagation constant's three terms, for ``f >= 0``:
+) -> tuple[float, float, float]:
+    r"""``(a1, 1/v, a2)`` of the causal propagation constant in the complex frequency s:
 
     .. math::
 
-        \gamma(f) = t_s\sqrt{f} + t_f\,f + t_g\,f\ln(f/f_{ref})
+        \gamma(s) = a_1\sqrt{s/\pi} + rac{s}{v}
+                    - rac{a_2}{\pi^2}\, s \lnrac{s}{2\pi f_{ref}}
 
-    with :math:`t_s = (1+j)a_1` (skin effect with its equal phase term),
-    :math:`t_f = a_2 + j2\pi/(VF\,c_0)` and :math:`t_g = -j(2/\pi)a_2`, where
-    ``a1`` and ``a2`` are the k1 and k2 loss terms in Np/m. The last term is the
-    phase that a loss rising in proportion to f must carry to stay causal
-    (Kramers-Kronig; it vanishes at ``f_ref`` = :data:`DIELECTRIC_REF_HZ`).
+    with ``a1`` and ``a2`` the k1 and k2 loss terms in Np/m (per sqrt(Hz) and
+    per Hz) and v = VF c0 (:func:`causal_basis` holds the three functions of s).
+    On the frequency axis, s = j 2 pi f, this is
+    :math:`(1+j)a_1\sqrt{f} + a_2 f\,(1 - j	frac{2}{\pi}\ln(f/f_{ref})) + j2\pi f/v`:
+    the catalog's loss, with the phase each loss term must carry to stay
+    causal (Kramers-Kronig; the dielectric phase vanishes at ``f_ref`` =
+    :data:`DIELECTRIC_REF_HZ`). Without those phases a reflection seen
+    through the line shows energy ahead of its edge.
 
-    For transforms to time (:mod:`calc.simulate`): without that phase a
-    reflection seen through the line shows energy ahead of its edge.
-    Answers at one frequency use :func:`propagation_constant`, which keeps
-    the catalog VF at every frequency; the two differ by that phase, under
-    a few tenths of a percent of the delay at 10 MHz for the catalog's cables.
+    For transforms to time (:mod:`calc.simulate`). Answers at one frequency
+    use :func:`propagation_constant`, which keeps the catalog VF at every
+    frequency; the two differ by the dielectric phase, a few tenths of a
+    percent of the delay at 10 MHz for the catalog's cables.
     """
     a1 = (k1 or 0.0) / 100.0 / DB_PER_NEPER / math.sqrt(1e6)  # Np/m/sqrt(Hz)
     a2 = (k2 or 0.0) / 100.0 / DB_PER_NEPER / 1e6  # Np/m/Hz
-    t_s = complex(a1, a1)
-    t_f = complex(a2, 2.0 * math.pi / (vf * C0_M_PER_S))
-    t_g = complex(0.0, -2.0 / math.pi * a2)
-    return t_s, t_f, t_g
+    return a1, 1.0 / (vf * C0_M_PER_S), a2
 
 
-def f_log_f(frequency_hz: np.ndarray | float) -> np.ndarray:
-    r""":math:`|f|\ln(|f|/f_{ref})`, with its limit 0 at f = 0."""
-    fa = np.abs(np.asarray(frequency_hz, dtype=float))
+def causal_basis(s: np.ndarray) -> np.ndarray:
+    r"""The three functions of s in :func:`causal_line_coefficients`, stacked (3, ...):
+
+    :math:`\sqrt{s/\pi}`, :math:`s`, :math:`-(s/\pi^2)\ln(s/2\pi f_{ref})`
+    (principal branches, analytic for Re s > 0; 0 at s = 0).
+    """
+    s = np.asarray(s, dtype=complex)
     with np.errstate(divide="ignore", invalid="ignore"):
-        return np.where(fa > 0.0, fa * np.log(fa / DIELECTRIC_REF_HZ), 0.0)
+        dielectric = np.where(s == 0, 0.0,
+                              -(s / math.pi ** 2) * np.log(s / (2.0 * math.pi * DIELECTRIC_REF_HZ)))
+    return np.stack([np.sqrt(s / math.pi), s, dielectric])
 
 
 def causal_propagation_constant(
@@ -138,12 +144,11 @@ def causal_propagation_constant(
     k1: float | None = None,
     k2: float | None = None,
 ) -> np.ndarray:
-    """:func:`propagation_constant` with the causal dielectric phase of :func:`propagation_terms`.
+    """The causal line of :func:`causal_line_coefficients` on the frequency axis, in 1/m.
 
     Negative frequencies give the conjugate.
     """
     f = np.asarray(frequency_hz, dtype=float)
-    fa = np.abs(f)
-    t_s, t_f, t_g = propagation_terms(vf, k1, k2)
-    g = t_s * np.sqrt(fa) + t_f * fa + t_g * f_log_f(fa)
+    basis = causal_basis(2j * math.pi * np.abs(f))
+    g = np.tensordot(np.array(causal_line_coefficients(vf, k1, k2)), basis, axes=1)
     return np.where(f < 0, np.conj(g), g)

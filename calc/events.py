@@ -107,6 +107,7 @@ class Event:
     peak_level: float
     impedance_ohm: float
     shape: str  # "step", "bump", "dip" or "relaxing"
+    timing: str  # "edge" (50 % of the leading edge) or "peak" (a brief bump's or dip's)
     kind: str
     confidence: float
     snr: float
@@ -215,12 +216,13 @@ def _crossing(t: np.ndarray, y: np.ndarray, level: float, near: int, lo: int, hi
     return float(t[i] + frac * (t[i + 1] - t[i]))
 
 
-def _uniform(time_s: np.ndarray, level: np.ndarray) -> tuple[np.ndarray, np.ndarray, bool]:
+def _uniform(time_s: np.ndarray, level: np.ndarray, steps: np.ndarray
+             ) -> tuple[np.ndarray, np.ndarray, bool]:
     """The trace on a uniform time grid (resampled linearly if the steps vary)."""
-    steps = np.diff(time_s)
-    dt = float(np.median(steps))
+    dt = float(time_s[-1] - time_s[0]) / (time_s.size - 1)
     if np.max(np.abs(steps - dt)) <= UNIFORM_TOLERANCE * dt:
         return time_s, level, False
+    dt = float(np.median(steps))
     n = int(math.floor((time_s[-1] - time_s[0]) / dt)) + 1
     t = time_s[0] + dt * np.arange(n)
     return t, np.interp(t, time_s, level), True
@@ -296,11 +298,12 @@ def analyse(time_s: np.ndarray, level: np.ndarray, *, z0_ohm: float = 50.0,
         raise InputError("trace", "a trace needs at least 8 samples of time and level")
     if not (np.isfinite(t).all() and np.isfinite(v).all()):
         raise InputError("trace", "the trace holds values that are not finite")
-    if (np.diff(t) <= 0).any():
+    steps = np.diff(t)
+    if (steps <= 0).any():
         raise InputError("trace", "time must increase from sample to sample")
     if not (math.isfinite(z0_ohm) and z0_ohm > 0):
         raise InputError("--z0", "Z0 must be a positive number of ohms", "50 ohm")
-    t, v, resampled = _uniform(t, v)
+    t, v, resampled = _uniform(t, v, steps)
     dt = float(t[1] - t[0])
     notes: list[str] = []
     if resampled:
@@ -316,7 +319,7 @@ def analyse(time_s: np.ndarray, level: np.ndarray, *, z0_ohm: float = 50.0,
         t_zero = 0.0
         start = 0
         rise = rise_time_s if rise_time_s else _estimate_rise(t, rho)
-    n_rise = max(rise / dt, 1.0)
+    n_rise = min(max(rise / dt, 1.0), float(t.size))  # a stated rise longer than the trace
     a = max(1, int(math.ceil(0.75 * n_rise)))
     w = max(2, int(math.ceil(n_rise)))
     d = _step_filter(rho, a, w)
@@ -326,19 +329,20 @@ def analyse(time_s: np.ndarray, level: np.ndarray, *, z0_ohm: float = 50.0,
     if span.size < 4:
         raise InputError("trace", "the trace ends too soon after the incident edge to analyse")
     sigma_d = _mad_sigma(span)
-    noise_rms = _mad_sigma(np.diff(rho[lo:hi])) / math.sqrt(2.0)
+    k_thin = max(1, (hi - lo) // 250_000)  # pairs of neighbours, thinned like _mad_sigma
+    noise_rms = _mad_sigma(rho[lo + 1:hi:k_thin] - rho[lo:hi - 1:k_thin]) / math.sqrt(2.0)
     k = math.sqrt(2.0 * math.log(max(span.size / w, 2.0))) + 1.5
     threshold = max(k * sigma_d, min_size)
     mask = np.zeros(rho.size, dtype=bool)
     mask[lo:hi] = np.abs(span) > threshold
     groups = _groups(_cores(mask, np.abs(d), threshold), d, 2 * a + w, threshold)
-    smooth = _box(rho, max(1, int(n_rise // 3)))
+    smooth_width = max(1, int(n_rise // 3))
     events: list[Event] = []
     window = max(w, 4)
     for gi, (s, e) in enumerate(groups):
         prev_end = groups[gi - 1][1] if gi else lo - (a + w)
         next_start = groups[gi + 1][0] if gi + 1 < len(groups) else rho.size
-        ev = _measure(t, rho, smooth, d, s, e, prev_end, next_start, window, t_zero,
+        ev = _measure(t, rho, smooth_width, d, s, e, prev_end, next_start, window, t_zero,
                       sigma_d, threshold, z0_ohm, dt, n_rise)
         if ev is None:
             continue
@@ -396,6 +400,9 @@ def _runs(mask: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
     return np.flatnonzero(edges == 1), np.flatnonzero(edges == -1) - 1
 
 
+#: A bump or dip wider than this many rise times at half its height is a
+#: slow reactance, placed by its leading edge rather than its peak.
+BROAD_RISE_TIMES = 2.0
 #: Rise times after an edge at which the level after it is read.
 SETTLE_RISE_TIMES = 8.0
 #: Within a run above the threshold, only samples above this fraction of the
@@ -461,27 +468,37 @@ def _groups(edges: list[tuple[int, int]], d: np.ndarray, gap: int, threshold: fl
     return out
 
 
-def _measure(t, rho, smooth, d, s, e, prev_end, next_start, window, t_zero, sigma_d,
+def _measure(t, rho, smooth_width, d, s, e, prev_end, next_start, window, t_zero, sigma_d,
              threshold, z0_ohm, dt, n_rise) -> Event | None:
     """Levels, delay and shape of one group of samples [s, e].
 
     The level after is the median around SETTLE_RISE_TIMES rise times past the
     edge (where the predictor's arrival sizes are taken too), or just after
-    the edge when the next event comes sooner.
+    the edge when the next event comes sooner. Crossings and peaks are read on
+    a lightly smoothed copy of the stretch up to the next event.
     """
+    n = rho.size
+    k0 = max(s - smooth_width, 0)
+    k1 = min(max(next_start, e + 1) + smooth_width, n)
+    tt = t[k0:k1]
+    sm = _box(rho[k0:k1], smooth_width)  # index i of the trace is sm[i - k0]
     b0 = max(prev_end + 1, s - window, 0)
     before = float(np.median(rho[b0:s])) if s > b0 else float(rho[max(s - 1, 0)])
     i_d = s + int(np.argmax(np.abs(d[s:e + 1])))
-    centre = i_d + int(SETTLE_RISE_TIMES * n_rise)
-    half = max(2, int(n_rise))
-    a0, a1 = max(centre - half, e + 1), min(centre + half, next_start, rho.size)
-    if a1 <= a0:
-        a0, a1 = e + 1, min(e + 1 + window, next_start, rho.size)
-    after = float(np.median(rho[a0:a1])) if a1 > a0 else float(rho[min(e, rho.size - 1)])
+
+    def level_after(i_edge: int) -> float:
+        centre = i_edge + int(SETTLE_RISE_TIMES * n_rise)
+        half = max(2, int(n_rise))
+        a0, a1 = max(centre - half, i_edge + 1), min(centre + half, next_start, n)
+        if a1 <= a0:
+            a0, a1 = e + 1, min(e + 1 + window, next_start, n)
+        return float(np.median(rho[a0:a1])) if a1 > a0 else float(rho[min(e, n - 1)])
+
+    after = level_after(i_d)
     s0 = max(next_start - window, e + 1)
     s1 = min(next_start, rho.size)
     settled = float(np.median(rho[s0:s1])) if s1 > s0 else after
-    seg = smooth[s:e + 1] - before
+    seg = sm[s - k0:e + 1 - k0] - before
     k_peak = int(np.argmax(np.abs(seg)))
     excursion = float(seg[k_peak])
     net = after - before
@@ -496,32 +513,50 @@ def _measure(t, rho, smooth, d, s, e, prev_end, next_start, window, t_zero, sigm
         shape = "bump" if excursion > 0 else "dip"
     elif abs(against) > max(4 * threshold, 0.15 * abs(final)):
         shape, excursion, k_peak = "relaxing", against, k_against
-    elif abs(excursion) - abs(net) > max(0.3 * abs(net), 4 * threshold):
-        shape = "relaxing"  # overshoots, then settles the same way (an L into a load)
+    elif min(abs(excursion) - abs(net), abs(excursion) - abs(settled - before)) > \
+            max(0.3 * abs(net), 4 * threshold):
+        shape = "relaxing"  # overshoots, then comes back part way (an L into a load)
+    elif (settled - after) * net < 0 and abs(settled - after) > max(0.25 * abs(net),
+                                                                     4 * threshold):
+        shape = "relaxing"  # steps, then drifts back (a slow reactance)
     else:
         shape = "step"
     i_peak = s + k_peak
     peak = before + excursion
+    timing = "edge"
     if shape in ("bump", "dip"):
-        time = _peak_time(t, smooth, i_peak)
+        # A brief one is placed at its peak (the derivative of the edge peaks at
+        # the edge's midpoint); a broad one (a slow reactance) by its leading edge.
+        above = np.abs(seg) >= 0.5 * abs(excursion)
+        if int(np.count_nonzero(above)) <= BROAD_RISE_TIMES * n_rise:
+            time, timing = _peak_time(tt, sm, i_peak - k0), "peak"
+        else:
+            time = _crossing(tt, sm, before + 0.5 * excursion, i_peak - k0, s - k0, i_peak - k0)
         size = excursion
         tail = min(e + 1 + 2 * (e - s + 1), next_start, rho.size)  # slow tails of reactances
         area = float(np.sum(rho[s:tail] - before) * dt)
         level_for_z = peak
     elif shape == "relaxing":
-        time = _crossing(t, smooth, before + 0.5 * excursion, i_peak, s, i_peak)
+        time = _crossing(tt, sm, before + 0.5 * excursion, i_peak - k0, s - k0, i_peak - k0)
         size = excursion
         level_for_z = settled
     else:
-        time = _crossing(t, smooth, 0.5 * (before + after), i_d, s, e)
-        size = net
+        # The 50 % point, and the level after read from it (not from the filter's
+        # peak, which wanders along a slow, loss-spread edge): twice, to settle.
+        i_mid = i_d
+        for _ in range(2):
+            time = _crossing(tt, sm, 0.5 * (before + after), i_mid - k0, s - k0, e - k0)
+            i_mid = min(max(int(np.searchsorted(t, time)), s), e)
+            after = level_after(i_mid)
+        time = _crossing(tt, sm, 0.5 * (before + after), i_mid - k0, s - k0, e - k0)
+        size = after - before
         level_for_z = after
     if abs(size) < threshold:  # swings that come back to nothing within the noise
         return None
     snr = abs(size) / sigma_d if sigma_d > 0 else math.inf
     tau = None
     if shape == "relaxing":
-        tau = _time_constant(t, smooth, i_peak, min(next_start, rho.size) - 1, peak, settled)
+        tau = _time_constant(tt, sm, i_peak - k0, min(next_start, n) - 1 - k0, peak, settled)
     cap = ind = None
     if shape == "dip":
         cap = -2.0 * area / z0_ohm
@@ -531,7 +566,7 @@ def _measure(t, rho, smooth, d, s, e, prev_end, next_start, window, t_zero, sigm
         round_trip_delay_s=time - t_zero, size=size, level_before=before, level_after=after,
         level_settled=settled, peak_level=peak,
         impedance_ohm=implied_impedance(level_for_z, z0_ohm), shape=shape, kind="",
-        confidence=0.0, snr=snr, time_constant_s=tau, capacitance_f=cap,
+        confidence=0.0, snr=snr, timing=timing, time_constant_s=tau, capacitance_f=cap,
         inductance_h=ind)
 
 
@@ -819,7 +854,9 @@ def place(analysis: Analysis, *, vf: float | None = None, vf_tolerance: float = 
     When ``with_loss`` and the cables (``segments``, or the one ``cable``)
     carry a loss model, a step's delay is first corrected for the lag that
     loss gives its 50 % point (a brief bump's or dip's for the lag of its
-    peak), and every event's size is weighed against the loss in front of it (:func:`loss_effect`); ``loss_delay_s`` and
+    peak; a slow reactance's first swing, faster than a full step, for half
+    the step's lag, which the tests find good to a centimetre or two), and
+    every event's size is weighed against the loss in front of it (:func:`loss_effect`); ``loss_delay_s`` and
     ``loss_scale`` say by how much. Past the far end the last cable is taken
     to go on. The events are then named again with that knowledge.
     """
@@ -832,8 +869,12 @@ def place(analysis: Analysis, *, vf: float | None = None, vf_tolerance: float = 
         effect = LossEffect()
         if with_loss and first.distance_m:
             effect = loss_effect(first.distance_m, rise, segments, cable, analysis.threshold)
-        lag = {"step": effect.delay_s, "bump": effect.peak_delay_s,
-               "dip": effect.peak_delay_s}.get(ev.shape, 0.0)
+        if ev.timing == "peak":
+            lag = effect.peak_delay_s
+        elif ev.shape == "step":
+            lag = effect.delay_s
+        else:  # a reactance's first swing is faster than a full step: half its lag
+            lag = 0.5 * effect.delay_s
         if lag > 0:
             first = _placed(ev, ev.round_trip_delay_s - lag, rise, vf, vf_tolerance, segments)
         placed.append(replace(first, loss_delay_s=lag, loss_scale=effect.scale))
@@ -943,9 +984,10 @@ def compare(analysis: Analysis, prediction, segments, *, vf_tolerance: float = 0
     Matching: same sign of size, re-reflections only with re-reflections;
     pairs are taken closest first (in units of their tolerance, plus
     :data:`KIND_PENALTY` when the kinds differ), each event at most once.
-    Offsets are between the placed distances (each with the loss's lag
-    taken off), or on the prediction's distance axis for an event that could
-    not be placed.
+    Offsets are the found event's distance as placed on the user's cable or
+    run, minus the predicted one's on the expected run (each with the loss's
+    lag taken off); a found event past the end of the user's run is placed
+    on the expected run instead.
     """
     expected = expected_events(prediction, analysis, segments, vf_tolerance)
     lo, hi = analysis.start_delay_s, analysis.end_delay_s
@@ -976,13 +1018,11 @@ def compare(analysis: Analysis, prediction, segments, *, vf_tolerance: float = 0
         used_x.add(i)
         used_f.add(j)
         x, ev = inside[i], found[j]
-        if ev.distance_m is not None and not ev.beyond_end:
-            offset_m = ev.distance_m - x.distance_m  # both placed, the loss's lag taken off
-        else:
-            offset_m = float(np.interp(ev.round_trip_delay_s, prediction.time_s,
-                                       prediction.distance_m)
-                             - np.interp(x.round_trip_delay_s, prediction.time_s,
-                                         prediction.distance_m))
+        where = ev
+        if ev.distance_m is None or ev.beyond_end:  # not placed on the user's run: use ours
+            where = _placed(ev, ev.round_trip_delay_s - ev.loss_delay_s,
+                            analysis.rise_time_s, None, 0.0, segments)
+        offset_m = where.distance_m - x.distance_m
         size_differs = abs(ev.size - x.size) > max(0.3 * abs(x.size), 3 * analysis.threshold)
         pairing = Pairing(x, ev, dt, offset_m, size_differs, ev.kind != x.kind)
         (matched if abs(dt) <= x.tolerance_s else misplaced).append(pairing)

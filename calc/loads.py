@@ -519,7 +519,7 @@ def seen_through(load: Load, frequency_hz: np.ndarray | float, segments: Sequenc
     g = tline.reflection_coefficient(z, ref)
     return SeenThrough(
         frequency_hz=frequency_hz, reference_z_ohm=ref, input_impedance_ohm=_scalar(z),
-        gamma=_scalar(g), return_loss_db=_scalar(tline.return_loss_db(g), float),
+        gamma=_scalar(g), return_loss_db=_scalar(np.maximum(tline.return_loss_db(g), 0.0), float),
         vswr=_scalar(tline.vswr(g), float),
         mismatch_loss_db=_scalar(tline.mismatch_loss_db(g), float),
         load_gamma=_scalar(load_gamma))

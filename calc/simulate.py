@@ -8,26 +8,29 @@ with a rise time or a pulse of a width).
 
 How the waveform is made (:func:`simulate`):
 
-1. The run is cascaded in the frequency domain, from the load back to the
-   instrument, vectorised over frequency with numpy (one reflection
-   recursion per junction; consecutive segments of one impedance share one
-   exponential). The result is the reflection coefficient seen by the
-   instrument, referenced to its own source impedance, which includes every
-   re-reflection between the junctions and the source (:func:`reflection_spectrum`).
-   Line loss is causal (:func:`calc.cable.propagation_constant`).
-2. The instrument's edge (a Gaussian-filtered step of the given 10-90 %
-   rise time, or a pulse: the step minus the step delayed by the width) and
-   a short pre-trigger delay multiply the spectrum; an inverse real FFT
-   gives the impulse response and a running (trapezoid) sum the step
-   response. The true 0 Hz value is in every grid (an open is +1 at DC).
-3. Nothing wraps: the FFT period holds the displayed window plus every
-   bounce the expansion below lists, and a stretch after them that must stay
-   quiet (within :data:`QUIET_LEVEL`); if it does not, the period doubles.
-   A skin-effect loss makes a far reflection creep toward its final level
-   for far longer than any display window; that slow part is carried by a
-   second, coarse grid with a 16 times longer period: the spectrum is split
-   by a smooth Gaussian low-pass, the low part is transformed on the coarse
-   grid and interpolated, the high part on the fine grid.
+1. The run is cascaded in the complex frequency s, from the load back to
+   the instrument, vectorised with numpy (one reflection recursion per
+   junction; consecutive segments of one impedance share one exponential).
+   The result is the reflection coefficient seen by the instrument,
+   referenced to its own source impedance, which includes every
+   re-reflection between the junctions and the source. The lines are causal
+   (:func:`calc.cable.causal_line_coefficients`); on the frequency axis the
+   same cascade is :func:`reflection_spectrum`, what an analyser reads.
+2. The instrument's edge (a step through a Gaussian of the 10-90 % rise
+   time, or a pulse: that step minus itself delayed by the width) and a short
+   pre-trigger delay multiply it, and 1/s makes it a step response.
+3. Nothing wraps: the transform is taken along Re s = c rather than on the
+   frequency axis (the numerical Laplace transform, or "exponential window"),
+   with c T = ln 1e6 for the FFT period T. What lies beyond one period --
+   a long train of re-reflections, a slow capacitor, the skin effect's
+   creep toward its final level, which no finite window holds -- folds back
+   into it at most a millionth of its size, and the inverse FFT's result is
+   multiplied by exp(c t). The period is 1.25 times the window shown. The
+   grid's first point, s = c, carries the network's exact value there (no
+   0 Hz value is guessed or extrapolated), so final levels are exact: an open
+   settles at +1, a short at -1. The edge is kept to at least 6 samples so
+   that its spectrum at the Nyquist frequency (2e-12) stays negligible after
+   the damping's gain.
 4. The distance axis maps each time through the run's cumulative round-trip
    delays, segment by segment (beyond the end, at the last segment's speed).
 
@@ -45,7 +48,7 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from calc.cable import f_log_f, propagation_terms
+from calc.cable import causal_basis, causal_line_coefficients
 from calc.constants import C0_M_PER_S
 from calc.errors import InputError
 from calc.loads import Load, component_kind, reflection_polynomials
@@ -64,20 +67,21 @@ MAX_AUTO_POINTS = 1 << 18
 MAX_FFT = 1 << 21
 #: Arrivals smaller than this (fraction of the incident step) are not listed.
 ARRIVAL_CUTOFF = 1e-3
-#: Bounces are followed down to this size; the window holds every one of them.
-TAIL_CUTOFF = 1e-4
-#: The stretch of the fine period after everything must move less than this.
-QUIET_LEVEL = 1e-4
 MAX_ARRIVALS = 100
+#: Bounce branches followed at most when listing arrivals (largest first).
 MAX_EXPANSIONS = 1000
-#: The coarse grid's period, in fine periods (see the module notes).
-LOW_BAND_PERIODS = 16
-#: The crossover low-pass between the grids spreads over window / this (in time).
-CROSSOVER_PER_WINDOW = 64.0
+#: Damping of the transform: exp(-c T) = 1e-6, so whatever lies beyond one
+#: period (re-reflections, a skin-effect creep, a slow capacitor) folds back
+#: into it at most a millionth of its size.
+DAMPING = math.log(1e6)
+#: The FFT period is at least this many times the window shown.
+PERIOD_PER_WINDOW = 1.25
 #: Gaussian step: the 10-90 % rise time is 2 sqrt(2) erfinv(0.8) sigma.
 RISE_PER_SIGMA = 2.0 * math.sqrt(2.0) * 0.9061938024368232
-#: The edge is never sharper than this many samples (finer would alias).
-MIN_RISE_SAMPLES = 4.0
+#: The edge is never sharper than this many samples: its spectrum is then below
+#: 2e-12 at the Nyquist frequency, which the damping's gain (at most e^11) leaves
+#: far below anything shown.
+MIN_RISE_SAMPLES = 6.0
 LUMP_KINDS = ("series_r", "series_l", "shunt_c")
 RUN_EXAMPLE = "10 m:rg58, 20 m:rg213"
 
@@ -152,8 +156,7 @@ class Prediction:
 
     ``warnings`` holds codes for the front end: ``"rise-time-limited"`` (the
     grid could not show the rise time asked for; ``rise_time_s`` is what was
-    used), ``"tail-folds"`` (the run rings longer than the largest window
-    holds), ``"arrivals-truncated"`` (the bounce list was cut at its cap).
+    used), ``"arrivals-truncated"`` (the bounce list was cut at its cap).
     """
 
     time_s: np.ndarray
@@ -301,6 +304,7 @@ class _Rational:
         """
         t = np.asarray(times_s, dtype=float)
         sigma = rise_s / RISE_PER_SIGMA
+        gauss = np.exp(-0.5 * (t / sigma) ** 2)
         phi = _normal_cdf(t / sigma)
         if self.constant or self.zero:
             return self.high * phi
@@ -308,21 +312,27 @@ class _Rational:
             return self.ramp_response(t + 0.5 * rise_s, rise_s)
         y = self.high * phi
         for p, r in zip(self.poles.real, self.residues.real, strict=True):
+            # exp(p t + p^2 s^2 / 2) Phi(-z sqrt 2), z = -(t + p s^2)/(s sqrt 2): for z >= 0 the
+            # product is exp(-t^2 / 2 s^2) erfcx(z) / 2, for z < 0 use erfc(z) = 2 - erfc(-z)
             z = -(t + p * sigma ** 2) / (sigma * math.sqrt(2.0))
-            far = z >= 5.0  # there exp(...) erfc(z) is computed as exp(-t^2/2s^2) erfcx(z)
-            e = np.empty_like(t)
-            e[far] = 0.5 * np.exp(-0.5 * (t[far] / sigma) ** 2) * _erfcx(z[far])
-            near = ~far
-            e[near] = 0.5 * np.exp(p * t[near] + 0.5 * (p * sigma) ** 2) * _erfc(z[near])
+            half = 0.5 * gauss * _erfcx(np.abs(z))
+            e = np.where(z >= 0.0, half,
+                         np.exp(np.minimum(p * t + 0.5 * (p * sigma) ** 2, 0.0)) - half)
             y = y + (r / p) * (e - phi)
         return y
 
-    def _sample_times(self, rise_s: float, settle_s: float) -> np.ndarray:
-        sigma = rise_s / RISE_PER_SIGMA
-        taus = self.time_constants_s or [rise_s]
-        t = np.concatenate([sigma * np.linspace(-3.0, 4.0, 36),
-                            np.geomspace(0.01 * min(taus), 10.0 * max(taus), 48)])
-        return t[t <= settle_s] if math.isfinite(settle_s) else t
+    def _edge_samples(self, rise_s: float, settle_s: float) -> np.ndarray:
+        """The edge response at times that catch its extremes (kept: asked for twice)."""
+        key = (rise_s, settle_s)
+        if getattr(self, "_edge_key", None) != key:
+            sigma = rise_s / RISE_PER_SIGMA
+            taus = self.time_constants_s or [rise_s]
+            t = np.concatenate([sigma * np.linspace(-3.0, 4.0, 36),
+                                np.geomspace(0.01 * min(taus), 10.0 * max(taus), 48)])
+            if math.isfinite(settle_s):
+                t = t[t <= settle_s]
+            self._edge_key, self._edge_y = key, self.edge_response(t, rise_s)
+        return self._edge_y
 
     def excursion(self, rise_s: float, settle_s: float) -> float:
         """The dip or bump beyond the settled level that the instrument's edge shows.
@@ -331,7 +341,7 @@ class _Rational:
         to the settled level; the settled level itself when there is none.
         """
         final = self.step_at(settle_s)
-        y = self.edge_response(self._sample_times(rise_s, settle_s), rise_s)
+        y = self._edge_samples(rise_s, settle_s)
         lo, hi = min(0.0, final), max(0.0, final)
         outside = np.maximum(y - hi, 0.0) + np.maximum(lo - y, 0.0)
         i = int(np.argmax(outside))
@@ -341,21 +351,30 @@ class _Rational:
         """The largest magnitude of its response to the instrument's edge."""
         if self.constant or self.zero:
             return abs(self.high)
-        y = self.edge_response(self._sample_times(rise_s, math.inf), rise_s)
-        return float(max(np.max(np.abs(y)), abs(self.dc)))
+        return float(max(np.max(np.abs(self._edge_samples(rise_s, math.inf))), abs(self.dc)))
 
 
-def _normal_cdf(x: np.ndarray) -> np.ndarray:
-    return 0.5 * _erfc(-np.asarray(x, dtype=float) / math.sqrt(2.0))
-
-
-_erfc = np.vectorize(math.erfc, otypes=[float])
+#: Numerical Recipes (Press, Teukolsky, Vetterling, Flannery), erfcc: a Chebyshev
+#: fit whose fractional error is below 1.2e-7 everywhere.
+_ERFC_COEFFS = (-1.26551223, 1.00002368, 0.37409196, 0.09678418, -0.18628806, 0.27886807,
+                -1.13520398, 1.48851587, -0.82215223, 0.17087277)
 
 
 def _erfcx(z: np.ndarray) -> np.ndarray:
-    """exp(z^2) erfc(z) for z >= 5, by its asymptotic series (good to 1e-7 there)."""
-    inv = 1.0 / (z * z)
-    return (1.0 - 0.5 * inv + 0.75 * inv ** 2 - 1.875 * inv ** 3) / (z * math.sqrt(math.pi))
+    """exp(z^2) erfc(z) for z >= 0 (the erfcc fit, written without the exp(-z^2))."""
+    t = 1.0 / (1.0 + 0.5 * np.asarray(z, dtype=float))
+    poly = np.zeros_like(t)
+    for coeff in reversed(_ERFC_COEFFS):
+        poly = poly * t + coeff
+    return t * np.exp(poly)
+
+
+def _normal_cdf(x: np.ndarray) -> np.ndarray:
+    """Phi(x) from the erfcc fit."""
+    x = np.asarray(x, dtype=float)
+    z = np.abs(x) / math.sqrt(2.0)
+    tail = 0.5 * np.exp(-z * z) * _erfcx(z)
+    return np.where(x >= 0.0, 1.0 - tail, tail)
 
 
 @dataclass
@@ -478,40 +497,17 @@ def _check(segments, load, lumps, source_z_ohm, rise_time_s, pulse_width_s, n_po
 
 # -- the frequency-domain cascade ---------------------------------------------
 class _Grid:
-    """A frequency grid and the basis every line exponent is built on: sqrt f, f, f ln f."""
+    """Points ``s`` of the complex frequency and the basis every line exponent is built on."""
 
-    def __init__(self, f: np.ndarray):
-        self.f = np.asarray(f, dtype=float)
-        self.s = 2j * math.pi * self.f
-        self.basis = np.stack([np.sqrt(self.f), self.f, f_log_f(self.f)])
-
-
-def _unit_phasor(magnitude: np.ndarray, phase: np.ndarray) -> np.ndarray:
-    """``magnitude * exp(-j phase)``, quickly.
-
-    The phase is reduced to one turn in double precision (exactly enough:
-    |phase| stays far below 2**52 rad), then its cosine and sine are taken in
-    single precision, which numpy vectorises: each factor is good to about
-    2e-7, several times faster than a double-precision complex exponential.
-    """
-    turns = phase * (1.0 / (2.0 * math.pi))
-    turns -= np.rint(turns)
-    angle = (turns * (2.0 * math.pi)).astype(np.float32)
-    out = np.empty(phase.shape, dtype=complex)
-    out.real = magnitude * np.cos(angle)
-    out.imag = magnitude * -np.sin(angle)
-    return out
+    def __init__(self, s: np.ndarray):
+        self.s = np.asarray(s, dtype=complex)
+        self.basis = causal_basis(self.s)
 
 
 def _line_terms(seg: Segment) -> np.ndarray:
-    """Round trip through ``seg``: 2 gamma l = c . (sqrt f, f, f ln f), three complex c."""
-    return 2.0 * seg.length_m * np.array(propagation_terms(seg.vf, seg.atten_k1, seg.atten_k2))
-
-
-def _line_factors(grid: _Grid, terms: np.ndarray) -> np.ndarray:
-    """exp(-2 gamma l) for each row of ``terms`` (groups x 3), on the grid (groups x f)."""
-    magnitude = np.exp(-(terms.real @ grid.basis))
-    return _unit_phasor(magnitude, terms.imag @ grid.basis)
+    """Round trip through ``seg``: 2 gamma(s) l = terms . basis(s), three real terms."""
+    return 2.0 * seg.length_m * np.array(causal_line_coefficients(seg.vf, seg.atten_k1,
+                                                                   seg.atten_k2))
 
 
 def _groups(segments, junctions) -> list[tuple[np.ndarray, object]]:
@@ -520,21 +516,21 @@ def _groups(segments, junctions) -> list[tuple[np.ndarray, object]]:
     Listed from the load back; the junction is the one at the group's near
     end (None for the group that starts at the instrument).
     """
-    out, acc = [], np.zeros(3, dtype=complex)
+    out, acc = [], np.zeros(3)
     for k in range(len(segments) - 1, -1, -1):
         acc = acc + _line_terms(segments[k])
         j = junctions[k - 1] if k > 0 else None
         if j is not None and j.transparent:
             continue
         out.append((acc, j))
-        acc = np.zeros(3, dtype=complex)
+        acc = np.zeros(3)
     return out
 
 
 def _cascade(grid: _Grid, segments, junctions, load_factor: _Rational, source_z: float):
     """Gamma seen by the instrument, referenced to its source impedance."""
     groups = _groups(segments, junctions)
-    factors = _line_factors(grid, np.array([g[0] for g in groups]))
+    factors = np.exp(-(np.array([g[0] for g in groups]) @ grid.basis))  # exp(-2 gamma l)
     gamma = load_factor(grid.s)
     for (_, j), factor in zip(groups, factors, strict=True):
         gamma = factor * gamma
@@ -557,7 +553,7 @@ def reflection_spectrum(segments: Sequence[Segment], load: Load, frequency_hz: n
     """
     _check(segments, load, lumps, source_z_ohm, None, None, None, None)
     zs = segments[0].z0_ohm if source_z_ohm is None else source_z_ohm
-    grid = _Grid(np.asarray(frequency_hz, dtype=float))
+    grid = _Grid(2j * math.pi * np.asarray(frequency_hz, dtype=float))
     return _cascade(grid, segments, _junctions(segments, lumps), _load_factor(load, segments, lumps),
                     zs)
 
@@ -586,7 +582,7 @@ class _Path:
     bound: float  # its rating: power-wave magnitudes, reactive parts by their edge response
     const: float  # product of its frequency-independent factors
     reactive: tuple  # its frequency-dependent factors (_Rational)
-    loss: tuple  # (skin k, dielectric a, dielectric phase g) summed over its line lengths
+    loss: tuple  # (skin a1 l, dielectric a2 l) summed over its passes
     events: tuple | None  # linked list (("R" | "T" | "S", junction index), rest)
 
     def dc(self, settle_s: float = math.inf) -> float:
@@ -598,7 +594,7 @@ class _Path:
 class _Bounces:
     paths: list  # _Path, in the order found
     truncated: bool
-    last_time_s: float  # latest arrival found above TAIL_CUTOFF
+    last_time_s: float  # latest arrival found
 
 
 def _power_scale(z_from: float, z_to: float) -> float:
@@ -606,9 +602,10 @@ def _power_scale(z_from: float, z_to: float) -> float:
     return math.sqrt(z_from / z_to)
 
 
-def _one_way_loss(seg: Segment) -> tuple[float, float, float]:
-    t_s, t_f, t_g = propagation_terms(seg.vf, seg.atten_k1, seg.atten_k2)
-    return (t_s.real * seg.length_m, t_f.real * seg.length_m, t_g.imag * seg.length_m)
+def _one_way_loss(seg: Segment) -> tuple[float, float]:
+    """(skin, dielectric) loss terms of one pass: a1 l and a2 l."""
+    a1, _, a2 = causal_line_coefficients(seg.vf, seg.atten_k1, seg.atten_k2)
+    return (a1 * seg.length_m, a2 * seg.length_m)
 
 
 def _hops(segments, junctions):
@@ -627,14 +624,14 @@ def _hops(segments, junctions):
 
     right, left = [], []
     for i in range(n):
-        acc, k = (0.0, (0.0, 0.0, 0.0)), i
+        acc, k = (0.0, (0.0, 0.0)), i
         while True:
             acc = add(acc, k)
             if k == n - 1 or not junctions[k].transparent:
                 break
             k += 1
         right.append((k + 1, k, acc[0], acc[1]))
-        acc, k = (0.0, (0.0, 0.0, 0.0)), i
+        acc, k = (0.0, (0.0, 0.0)), i
         while True:
             acc = add(acc, k)
             if k == 0 or not junctions[k - 1].transparent:
@@ -648,8 +645,6 @@ def _expand(segments, junctions, load_factor: _Rational, source_z: float, rise_s
             horizon_s: float) -> _Bounces:
     """Bounce paths above :data:`ARRIVAL_CUTOFF`, largest first, within ``horizon_s``.
 
-    Branches are followed down to :data:`TAIL_CUTOFF`, so that the latest
-    time anything of that size comes back is known (the window must hold it).
 
     Best-first over the tree of reflections and transmissions at every
     junction (transparent joints are crossed in one hop). A branch is rated
@@ -695,24 +690,24 @@ def _expand(segments, junctions, load_factor: _Rational, source_z: float, rise_s
     out_scale = abs(t_out) * _power_scale(z0, source_z)
     paths: list[_Path] = []
     if r_in != 0.0:
-        paths.append(_Path(0.0, abs(r_in), r_in, (), (0.0, 0.0, 0.0), (("R", 0), None)))
+        paths.append(_Path(0.0, abs(r_in), r_in, (), (0.0, 0.0), (("R", 0), None)))
     launch = abs(t_in) * _power_scale(source_z, z0)
-    heap = [(-launch, 0, 0, +1, 0.0, t_in, (), 0.0, 0.0, 0.0, None)]
+    heap = [(-launch, 0, 0, +1, 0.0, t_in, (), 0.0, 0.0, None)]
     counter = 0
     last = 0.0
-    cutoff = TAIL_CUTOFF
+    cutoff = ARRIVAL_CUTOFF
     push, pop = heapq.heappush, heapq.heappop
     expansions = 0
     while heap and expansions < MAX_EXPANSIONS:
         expansions += 1
-        nb, _, seg, direction, time, const, reactive, k, a, g, events = pop(heap)
+        nb, _, seg, direction, time, const, reactive, k, a, events = pop(heap)
         delay, loss, moves, arrives = table[direction][seg]
         time += delay
-        k, a, g = k + loss[0], a + loss[1], g + loss[2]
+        k, a = k + loss[0], a + loss[1]
         if arrives:
             bound = -nb * out_scale
-            if bound >= ARRIVAL_CUTOFF:
-                paths.append(_Path(time, bound, const * t_out, reactive, (k, a, g), events))
+            if bound >= cutoff:
+                paths.append(_Path(time, bound, const * t_out, reactive, (k, a), events))
             last = max(last, time)
         if time > horizon_s:
             continue
@@ -722,7 +717,7 @@ def _expand(segments, junctions, load_factor: _Rational, source_z: float, rise_s
                 continue
             counter += 1
             push(heap, (-bound, counter, nseg, ndir, time, const * c,
-                        reactive if factor is None else reactive + (factor,), k, a, g,
+                        reactive if factor is None else reactive + (factor,), k, a,
                         (event, events)))
     return _Bounces(paths, bool(heap) and -heap[0][0] >= ARRIVAL_CUTOFF, last)
 
@@ -770,9 +765,10 @@ def _path_text(events, names: dict, n_segments: int) -> str:
 def _lossy_steps(loss_terms: list, times_s: Sequence[float], rise_s: float) -> np.ndarray:
     """Step response of each path's line loss (delay removed), at each of ``times_s``.
 
-    ``loss_terms``: (skin k, dielectric a, dielectric phase g) per path, so that
-    the path's loss is ``exp(-((1+j) k sqrt(f) + a f + j g f ln(f/f_ref)))``,
-    seen through the instrument's Gaussian edge. The response is causal, so
+    ``loss_terms``: (skin a1 l, dielectric a2 l) per path; the path's loss is
+    the causal line's (:func:`calc.cable.causal_line_coefficients`) without
+    its delay, seen through the instrument's Gaussian edge. The response is
+    causal, so
 
     .. math:: s(t) = \\frac{2}{\\pi}\\int_0^\\infty \\mathrm{Re}\\,H(\\omega)
               \\frac{\\sin\\omega t}{\\omega}\\,d\\omega
@@ -789,9 +785,11 @@ def _lossy_steps(loss_terms: list, times_s: Sequence[float], rise_s: float) -> n
     nq = int(min(8192, max(256, 8.0 * math.pi * f_max * times.max())))
     u = np.linspace(0.0, math.sqrt(f_max), nq + 1)
     f = u * u
-    k, a, g = (np.array(col, dtype=float)[:, None] for col in zip(*loss_terms, strict=True))
-    h = _unit_phasor(np.exp(-(k * u + a * f) - 2.0 * (math.pi * sigma * f) ** 2),
-                     k * u + g * f_log_f(f)).real
+    basis = causal_basis(2j * math.pi * f)
+    skin, dielectric = (np.array(col, dtype=float)[:, None]
+                        for col in zip(*loss_terms, strict=True))
+    h = (np.exp(-(skin * basis[0] + dielectric * basis[2])).real
+         * np.exp(-2.0 * (math.pi * sigma * f) ** 2))
     kernel = np.empty((nq + 1, times.size))
     kernel[0] = 0.0  # sin(2 pi u^2 t)/u -> 0 at u = 0
     kernel[1:] = np.sin(2.0 * math.pi * np.outer(f[1:], times)) / u[1:, None]
@@ -808,7 +806,7 @@ def _finish_arrivals(bounces: _Bounces, segments, junctions, settle_s: float, ri
     # loss (to 4 significant digits: an estimate, not worth more)
     keys = [tuple(float(f"{x:.4g}") for x in p.loss) for p in rows]
     unique = sorted({k for k in keys if any(k)})
-    loss_at = {(0.0, 0.0, 0.0): 1.0}
+    loss_at = {(0.0, 0.0): 1.0}
     if unique:
         loss_at.update(zip(unique, _lossy_steps(unique, [settle_s], rise_s)[:, 0], strict=True))
     level_time = settle_s if pulse else math.inf
@@ -833,48 +831,6 @@ def _finish_arrivals(bounces: _Bounces, segments, junctions, settle_s: float, ri
                  for (p, size, start), d in zip(out, where, strict=True))
 
 
-def _creep_tails(paths, t_pre: float) -> tuple[np.ndarray, np.ndarray]:
-    """Arrival (in period time) and tail strength ``A`` of each path's skin-effect creep.
-
-    A path of DC size ``a`` through lines with a total skin term
-    ``(1+j) k sqrt(f)`` steps as ``a erfc(b / (2 sqrt(t)))`` with
-    ``b = k / sqrt(pi)``; late on its impulse response is ``A t**-1.5`` with
-    ``A = a b / (2 sqrt(pi))``, and its step ``a - 2 A t**-0.5``. No window
-    holds that tail; what lies beyond a period folds back into it.
-    """
-    lossy = [p for p in paths if p.loss[0] != 0.0]
-    t_a = np.array([p.time_s + t_pre for p in lossy])
-    amp = np.array([p.dc() * p.loss[0] / (2.0 * math.pi) for p in lossy])
-    return t_a, amp
-
-
-def _fine_fold(t_a, amp, period_s: float, sigma_x: float, tau: np.ndarray) -> np.ndarray:
-    """What the creep folds into the fine (high-passed) band, at period times ``tau``.
-
-    The high-pass (1 - Gaussian of spread sigma_x) leaves ``-(sigma_x**2/2) s''``
-    of a slow step ``s``, which for the creep is ``(3/4) sigma_x**2 A t**-2.5``.
-    """
-    m = np.arange(1, 5, dtype=float)[:, None, None] * period_s
-    late = m - t_a[None, :, None]
-    fold = (tau[None, None, :] + late) ** -2.5 - late ** -2.5
-    return 0.75 * sigma_x ** 2 * np.einsum("j,mjk->k", amp, fold)
-
-
-def _slow_fold(t_a, amp, period_s: float, tau: np.ndarray) -> np.ndarray:
-    """What the creep folds into the long coarse period, at period times ``tau``.
-
-    ``-2 A [(tau + late)**-0.5 - late**-0.5]`` summed over the later periods:
-    exactly for the first 8, as a straight line beyond (where it is one).
-    """
-    m = np.arange(1, 9, dtype=float)[:, None, None] * period_s
-    late = m - t_a[None, :, None]
-    near = -2.0 * np.einsum("j,mjk->k", amp, (tau[None, None, :] + late) ** -0.5 - late ** -0.5)
-    far = np.arange(9, 513, dtype=float)[:, None] * period_s - t_a[None, :]
-    tail = np.sum(far ** -1.5, axis=0) + 2.0 / np.sqrt(far[-1] + 0.5 * period_s) / period_s
-    return near + float(np.sum(amp * tail)) * tau
-
-
-# -- the transform ----------------------------------------------------------------
 def _fast_length(n: int) -> int:
     """The smallest 2**k, 3 * 2**k or 5 * 2**(k-2) at or above ``n`` (quick FFT sizes)."""
     best = 1 << max(0, int(n - 1).bit_length())
@@ -884,41 +840,6 @@ def _fast_length(n: int) -> int:
         if n <= cand < best:
             best = cand
     return best
-
-
-def _cubic_at(t: np.ndarray, t0: float, dt: float, y: np.ndarray) -> np.ndarray:
-    """Four-point Lagrange interpolation of samples ``y`` (at ``t0 + k dt``) at times ``t``.
-
-    ``t`` must lie between the second sample and the third from last.
-    """
-    x = (t - t0) / dt
-    k = np.clip(np.floor(x).astype(int), 1, len(y) - 3)
-    u = x - k
-    um, u1, u2 = u + 1.0, u - 1.0, u - 2.0
-    return (-u * u1 * u2 / 6.0 * y[k - 1] + um * u1 * u2 / 2.0 * y[k]
-            - um * u * u2 / 2.0 * y[k + 1] + um * u * u1 / 6.0 * y[k + 2])
-
-
-def _running_integral(spec: np.ndarray, n: int, keep: int, before: int = 0) -> np.ndarray:
-    r"""The step response (running integral of the impulse response) from its spectrum.
-
-    ``spec`` holds the rfft bins of one period of ``n`` samples. Integrating
-    term by term is exact for a band-limited periodic signal (a trapezoid sum
-    of the samples is not: it errs by about dt^2/12 h' on a sharp edge):
-
-    .. math:: s_k = X_0 k/n + P_k - P_0,\quad
-              P = \mathrm{irfft}\bigl(X_m / (j 2\pi m / n)\bigr)
-
-    Returns the first ``keep`` samples (with ``before``, that many samples before
-    the first as well, from the end of the period).
-    """
-    m = np.arange(spec.size)
-    y = np.empty_like(spec)
-    y[0] = 0.0
-    y[1:] = spec[1:] / (2j * math.pi * m[1:] / n)
-    p = np.fft.irfft(y, n)
-    k = np.arange(-before, keep)
-    return spec[0].real * k / n + (p[k] - p[0])
 
 
 def simulate(
@@ -936,7 +857,7 @@ def simulate(
 
     ``source_z_ohm`` defaults to the first segment's Z0 (a matched
     instrument). ``rise_time_s`` is the 10-90 % rise of the instrument's step
-    (default: as sharp as the grid shows cleanly, 4 samples). With
+    (default: as sharp as the grid shows cleanly, 6 samples). With
     ``pulse_width_s`` the instrument sends a pulse of that width instead of a
     step. ``span_s`` is the time shown after the instrument's own edge
     (default: the whole run's round trip and a quarter more, plus time for
@@ -987,71 +908,32 @@ def simulate(
     sigma = tr / RISE_PER_SIGMA
 
     settle = pulse if pulse else 8.0 * tr
-    bounces = _expand(segments, junctions, load_factor, zs, tr,
-                      horizon_s=MAX_FFT * dt)
+
+    # the damped transform: s = c + j w on a grid whose period holds the window and a
+    # quarter more; the step is Gamma(s) H(s) / s, and x(t) = exp(c t) irfft(...) / dt
+    n_fft = _fast_length(int(math.ceil(PERIOD_PER_WINDOW * n)))
+    if n_fft > MAX_FFT:
+        raise InputError("--points", f"{n} points need a transform of {n_fft}; at most "
+                         f"{int(MAX_FFT / PERIOD_PER_WINDOW)} points", "16384")
+    period = n_fft * dt
+    c = DAMPING / period
+    s = c + 2j * math.pi * np.fft.rfftfreq(n_fft, dt)
+    spec = _cascade(_Grid(s), segments, junctions, load_factor, zs)
+    edge = np.exp(0.5 * (sigma * s) ** 2 - s * t_pre) / s  # Gaussian edge, delay, step
+    if pulse:
+        edge *= 1.0 - np.exp(-s * pulse)
+    level = np.fft.irfft(spec * edge, n_fft)[:n] * (np.exp(c * dt * np.arange(n)) / dt)
+    if not pulse:
+        # what has settled folds back from every later period as exp(-m c T) times the
+        # settled level: the network's true value at 0 Hz gives that level exactly
+        dc = float(_cascade(_Grid(np.zeros(1)), segments, junctions, load_factor, zs)[0].real)
+        fold = math.exp(-DAMPING)
+        level -= dc * fold / (1.0 - fold)
+    time = np.arange(n) * dt - t_pre
+
+    bounces = _expand(segments, junctions, load_factor, zs, tr, horizon_s=span)
     if bounces.truncated:
         warnings.append("arrivals-truncated")
-
-    def excitation(f, lowpass_sigma, high):
-        """The instrument's edge and pre-trigger delay, times one side of the crossover."""
-        g = np.exp(-2.0 * (math.pi * sigma * f) ** 2)
-        w = np.exp(-2.0 * (math.pi * lowpass_sigma * f) ** 2)
-        x = _unit_phasor(g * (1.0 - w) if high else g * w, (2.0 * math.pi * t_pre) * f)
-        if pulse:
-            x *= 1.0 - _unit_phasor(np.ones_like(f), (2.0 * math.pi * pulse) * f)
-        return x
-
-    # fine grid: the display window, the crossover's spread, every bounce found, and a
-    # stretch after them that must be quiet (else the period doubles: nothing wraps)
-    sigma_x = window / CROSSOVER_PER_WINDOW  # crossover low-pass (its time spread)
-    need_t = max(window, bounces.last_time_s + t_pre + settle + 4.0 * tr) + 16.0 * sigma_x
-    n_fft = min(MAX_FFT, _fast_length(int(math.ceil(need_t / dt))))
-    quiet_from = need_t - 12.0 * sigma_x
-    while True:
-        f_fine = np.fft.rfftfreq(n_fft, dt)
-        spec = _cascade(_Grid(f_fine), segments, junctions, load_factor, zs)
-        spec *= excitation(f_fine, sigma_x, high=True)
-        full = _running_integral(spec, n_fft, n_fft)
-        quiet = full[int(quiet_from / dt):n_fft - int(6.0 * sigma_x / dt)]
-        if quiet.size < 2 or np.ptp(quiet) <= QUIET_LEVEL:
-            break
-        if n_fft == MAX_FFT:
-            warnings.append("tail-folds")
-            break
-        quiet_from = n_fft * dt
-        n_fft = min(MAX_FFT, _fast_length(2 * n_fft))
-    period = n_fft * dt
-    level = full[:n]
-    t_a, amp = _creep_tails(bounces.paths, t_pre) if not pulse else (np.array([]),) * 2
-    if amp.size:
-        nodes = np.linspace(0.0, window, 65)
-        level -= np.interp(np.arange(n) * dt, nodes,
-                           _fine_fold(t_a, amp, period, sigma_x, nodes))
-
-    # coarse grid: the slow part, with a long period (reactive tails and skin-effect creep)
-    period_lo = max(LOW_BAND_PERIODS * period, window + 12.0 * tau_max)
-    dt_lo = sigma_x / 8.0
-    f_lo_max = 1.3 / sigma_x
-    df_lo = 1.0 / period_lo
-    n_lo_f = int(math.ceil(f_lo_max / df_lo)) + 1
-    if n_lo_f > MAX_FFT // 2:
-        n_lo_f = MAX_FFT // 2
-        df_lo = f_lo_max / (n_lo_f - 1)
-        warnings.append("tail-folds")
-    f_lo = np.arange(n_lo_f) * df_lo
-    n_lo = _fast_length(int(math.ceil(1.0 / (df_lo * dt_lo))))
-    dt_lo = 1.0 / (df_lo * n_lo)
-    spec_lo = _cascade(_Grid(f_lo), segments, junctions, load_factor, zs)
-    spec_lo = spec_lo * excitation(f_lo, sigma_x, high=False)
-    k_lo = int(math.ceil(window / dt_lo)) + 4
-    slow = _running_integral(spec_lo, n_lo, k_lo, before=1)
-    t_lo = np.arange(-1, k_lo) * dt_lo - t_pre
-    if amp.size:
-        nodes = np.linspace(0.0, window + 4.0 * dt_lo, 65)
-        slow -= np.interp(t_lo + t_pre, nodes, _slow_fold(t_a, amp, 1.0 / df_lo, nodes))
-    time = np.arange(n) * dt - t_pre
-    level = level + _cubic_at(time, -t_pre - dt_lo, dt_lo, slow)
-
     arrivals = tuple(a for a in _finish_arrivals(bounces, segments, junctions, settle, tr,
                                                   bool(pulse)) if a.time_s <= span)
     return Prediction(

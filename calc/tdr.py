@@ -28,7 +28,8 @@ Steps, each a plain numpy operation:
    and its ripple, ``ringing`` (the largest departure of that step from an
    ideal one, two rise times or more from the edge, as a fraction).
 5. **Transform.** The impulse response is the inverse real FFT of the
-   windowed spectrum (zero-padded ``pad`` times for a finer time step),
+   windowed spectrum (zero-padded about ``pad`` times for a finer time step,
+   to a length the FFT does quickly),
    so that its sum is S11(0); the step response is its running trapezoid
    integral. Time runs from -T/16 to 15 T/16 where T = 1/df is the longest
    round trip the sweep shows without wrap-around.
@@ -183,7 +184,7 @@ def time_domain(frequency_hz: np.ndarray, s11: np.ndarray, *, window: str = "kai
         k_max = k_first + f.size - 1
         s_band = s
     m = k_max + 1
-    n_time = 2 * m * pad - 1
+    n_time = fft_size(2 * m * pad - 1)
     if n_time > MAX_POINTS:
         raise InputError("--pad", f"the transform would need {n_time} points; at most "
                          f"{MAX_POINTS} (lower --pad or narrow the band)", "2")
@@ -221,6 +222,24 @@ def time_domain(frequency_hz: np.ndarray, s11: np.ndarray, *, window: str = "kai
         ringing=ringing,
         alias_free_s=1.0 / df, dc_value=dc, dc_source=dc_source, resampled=resampled,
         notes=tuple(notes))
+
+
+def fft_size(n: int) -> int:
+    """The smallest odd 3^a 5^b 7^c at or above ``n``: a length the FFT does
+    quickly (one with a large prime factor can take many times longer), and
+    odd like scikit-rf's low-pass transform, so the two share a time grid."""
+    best = None
+    p3 = 1
+    while p3 < 3 * n or best is None:
+        p5 = p3
+        while p5 < 3 * n:
+            p7 = p5
+            while p7 < n:
+                p7 *= 7
+            best = p7 if best is None else min(best, p7)
+            p5 *= 5
+        p3 *= 3
+    return best
 
 
 def _transform(spectrum: np.ndarray, n_time: int, df: float):

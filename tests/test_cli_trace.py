@@ -150,3 +150,33 @@ def test_bad_options_exit_2_with_one_line(capsys, argv, words):
     assert code == 2 and out == ""
     lines = [ln for ln in err.splitlines() if not ln.startswith("halftrip: caution")]
     assert len(lines) == 1 and words in lines[0]
+
+
+# --------------------------------------------------------------------- fuzzing
+
+from hypothesis import HealthCheck, given, settings  # noqa: E402
+from hypothesis import strategies as st  # noqa: E402
+
+_LINES = st.sampled_from([
+    "time_ns,level_V\n", "Time (ns);rho\n", "# MHz S RI R 50\n", "# GHz S MA R 75\n",
+    "0,0\n", "1,0.5\n", "2,0.5\n", "3,1\n", "4,-1\n", "5,1e300\n", "6,-0\n", "0.5 0.1 0.2\n",
+    "1 0.3 45\n", "2 0.9 -170\n", "x,y\n", "\n", "! c\n", "7,0.25\n", "8,0.25\n", "9,0.5\n",
+])
+
+
+@settings(max_examples=150, deadline=None, suppress_health_check=[HealthCheck.too_slow,
+                                                                  HealthCheck.function_scoped_fixture])
+@given(lines=st.lists(_LINES, min_size=0, max_size=40),
+       ramp=st.integers(min_value=0, max_value=200), name=st.sampled_from(["f.csv", "f.s1p"]))
+def test_fuzzed_files_end_in_a_result_or_one_clear_line(capsys, tmp_path, lines, ramp, name):
+    # A readable start (a ramp of samples) then arbitrary lines: the whole
+    # pipeline (read, transform, analyse, place) must end in exit 0 or 2.
+    text = "time_ns,level_V\n" + "".join(f"{i},{(i % 7) / 10}\n" for i in range(ramp))
+    path = tmp_path / name
+    path.write_text(text + "".join(lines) if name.endswith(".csv") else "".join(lines))
+    code, out, err = run(capsys, "trace", str(path), "--vf", "0.66", "--json")
+    assert code in (0, 2), err
+    if code == 0:
+        assert isinstance(json.loads(out), dict)
+    else:
+        assert out == "" and len(err.strip().splitlines()) == 1

@@ -238,3 +238,25 @@ def test_compare_reports_what_lies_outside_the_recorded_window():
     cmp = compare(a, pred, _run("10:rg58, 90:rg58"), vf_tolerance=0.03)
     assert any(math.isclose(x.distance_m, 100.0, abs_tol=0.2) for x in cmp.outside) or \
         any(math.isclose(x.expected.distance_m, 100.0, abs_tol=0.2) for x in cmp.misplaced)
+
+
+# --------------------------------------------------------------------- fuzzing
+
+from hypothesis import given, settings  # noqa: E402
+from hypothesis import strategies as st  # noqa: E402
+from hypothesis.extra.numpy import arrays  # noqa: E402
+
+
+@settings(max_examples=300, deadline=None)
+@given(level=arrays(np.float64, st.integers(8, 400),
+                    elements=st.floats(-1e6, 1e6, allow_nan=False)),
+       incident=st.booleans(), rise=st.none() | st.floats(1e-12, 1e-6))
+def test_fuzzed_levels_only_raise_input_error(level, incident, rise):
+    t = np.arange(level.size) * 1e-10
+    try:
+        a = analyse(t, level, incident_edge=incident, rise_time_s=rise)
+    except InputError:
+        return
+    place(a, vf=0.66, vf_tolerance=0.03)
+    for ev in a.events:
+        assert math.isfinite(ev.round_trip_delay_s) and ev.kind

@@ -54,12 +54,12 @@ def test_step_response_matches_scikit_rf_with_dc_point(tmp_path, window):
     ref_net, sweep = _via_file(_network(f), tmp_path)
     pad = 4
     ours = time_domain(sweep.frequency_hz, sweep.s11, window=window, pad=pad)
-    m = f.size
-    t_ref, s_ref = ref_net.step_response(window=SKRF_WINDOWS[window], pad=m * (pad - 1))
-    assert ours.time_s.size == t_ref.size
+    n = ours.time_s.size  # the same transform length for the reference
+    t_ref, s_ref = ref_net.step_response(window=SKRF_WINDOWS[window], n=n)
+    assert t_ref.size == n
     assert ours.time_s[1] - ours.time_s[0] == pytest.approx(t_ref[1] - t_ref[0], rel=1e-9)
     assert ours.dc_source == "measured"
-    t_imp, h_ref = ref_net.impulse_response(window=SKRF_WINDOWS[window], pad=m * (pad - 1))
+    t_imp, h_ref = ref_net.impulse_response(window=SKRF_WINDOWS[window], n=n)
     keep = (ours.time_s > -ours.alias_free_s / 20) & (ours.time_s < ours.alias_free_s / 2.2)
     h = np.interp(ours.time_s[keep], t_imp, h_ref.real)
     np.testing.assert_allclose(ours.impulse[keep], h, atol=1e-9)
@@ -97,7 +97,7 @@ def test_dc_extrapolated_for_a_sweep_without_0_hz(tmp_path, termination, dc):
     with warnings.catch_warnings():
         warnings.simplefilter("ignore")
         ext = ref_net.extrapolate_to_dc(kind="cubic")
-    t_ref, s_ref = ext.step_response(window=("kaiser", 6.0), pad=ext.frequency.npoints * 3)
+    t_ref, s_ref = ext.step_response(window=("kaiser", 6.0), n=td.time_s.size)
     keep = (td.time_s > 0) & (td.time_s < td.alias_free_s / 2.2)
     ref = np.interp(td.time_s[keep], t_ref, s_ref.real)
     assert np.max(np.abs(td.step[keep] - ref)) < 0.02
@@ -127,6 +127,18 @@ def test_band_limits_the_points_used():
     assert td.band_high_hz == pytest.approx(500e6)
     full = time_domain(f, net.s[:, 0, 0])
     assert td.rise_time_s == pytest.approx(2 * full.rise_time_s, rel=0.02)
+
+
+def test_fft_size_is_a_quick_length_at_or_above():
+    from calc.tdr import fft_size
+
+    for n in (1, 7, 8001, 800007, 2**20 + 1):
+        m = fft_size(n)
+        assert m >= n and m < 1.5 * n and m % 2 == 1
+        for p in (3, 5, 7):
+            while m % p == 0:
+                m //= p
+        assert m == 1
 
 
 @pytest.mark.parametrize("kwargs, field", [

@@ -98,6 +98,64 @@ def json_ready(obj):
     return str(obj)
 
 
+# -- values by their JSON key (job-log reports and entry views) ------------------------------
+
+_ACRONYMS = {"vf": "VF", "vswr": "VSWR", "nvp": "NVP", "eps": "eps", "rf": "RF", "dc": "DC"}
+_UNIT_SUFFIXES = ("m", "s", "hz", "ohm", "db", "percent", "deg")
+
+
+def key_unit(key: str) -> tuple[str, str]:
+    """Split a snake_case key into its name and SI unit suffix: ``distance_low_m`` ->
+    (``distance_low``, ``m``); ``delay_per_length_s_per_m`` -> (``delay_per_length``, ``s/m``)."""
+    parts = key.split("_")
+    if len(parts) >= 4 and parts[-2] == "per" and parts[-3] in _UNIT_SUFFIXES:
+        return "_".join(parts[:-3]), f"{parts[-3]}/{parts[-1]}"
+    if len(parts) >= 2 and parts[-1] in _UNIT_SUFFIXES:
+        return "_".join(parts[:-1]), parts[-1]
+    return key, ""
+
+
+def key_label(key: str) -> str:
+    """A JSON key as words for people: ``distance_low_m`` -> ``distance low``."""
+    name, _unit = key_unit(key)
+    return " ".join(_ACRONYMS.get(w, w) for w in name.split("_") if w) or key
+
+
+def by_key(key: str, value, units: str = "metric", fraction: int = 16) -> str:
+    """A JSON scalar shown for people, formatted by its key's SI suffix."""
+    if value is None:
+        return "-"
+    if isinstance(value, bool):
+        return "yes" if value else "no"
+    if isinstance(value, str):
+        return value
+    if isinstance(value, dict) and set(value) == {"real", "imag"}:
+        value = complex(value["real"] or 0.0, value["imag"] or 0.0)
+    if not isinstance(value, int | float | complex):
+        return str(value)
+    name, unit = key_unit(key)
+    if isinstance(value, complex):
+        return impedance(value) if unit == "ohm" else f"{value.real:.6g} {value.imag:+.6g}j"
+    if isinstance(value, int) and not unit:
+        return str(value)
+    value = float(value)
+    if name.split("_")[0] == "vswr" and not unit:
+        return vswr(value)
+    shown = {
+        "m": lambda v: length(v, units, fraction),
+        "s": time,
+        "hz": frequency,
+        "ohm": impedance,
+        "db": decibels,
+        "percent": lambda v: f"{v:.4g} %",
+        "deg": lambda v: f"{v:.4g} deg",
+    }.get(unit)
+    if shown is not None:
+        return shown(value)
+    text = f"{value:.6g}" if math.isfinite(value) else "infinite"
+    return f"{text} {unit}" if unit else text
+
+
 def other_units(units: str) -> str:
     """The unit system that is not ``units``."""
     return "imperial" if units == "metric" else "metric"
@@ -176,3 +234,10 @@ def component(value: float, unit: str, digits: int = 3) -> str:
     """An inductance (``"H"``) or capacitance (``"F"``) with an SI prefix: ``"6.1 nH"``."""
     return _scaled(value, unit, ((1.0, ""), (1e-3, "m"), (1e-6, "u"), (1e-9, "n"),
                                  (1e-12, "p"), (1e-15, "f")), digits)
+
+
+def wrapped(line: str, indent: int = 19, width: int = 79) -> list[str]:
+    """One line of text folded to ``width`` columns, later lines indented by ``indent``."""
+    import textwrap
+
+    return textwrap.wrap(line, width=width, subsequent_indent=" " * indent) or [""]

@@ -155,10 +155,10 @@ def _forward_report(args, s, through) -> tuple[dict, list[str]]:
     at = f" at {fmt.frequency(s.frequency_hz)}" if s.frequency_hz is not None else ""
     lines = [f"load               {args.load}  on a {fmt.impedance(s.z0_ohm)} line"]
     if z is not None:
-        lines.append(f"{'impedance' + at:<18} {fmt.impedance(z)}")
+        lines.append(f"impedance          {fmt.impedance(z)}{at}")
     lines += _figure_lines(s.gamma, s.return_loss_db, s.vswr, s.mismatch_loss_db,
                            "give --frequency for a reactive load's reflection")
-    basis = "at that frequency" if s.frequency_hz is not None else "once settled"
+    basis = at.strip() if s.frequency_hz is not None else "once settled"
     lines.append(f"reflected voltage  {_sign_text(s.voltage_sign)} "
                  f"({s.reflected_voltage.real:+.3f} of the incident, {basis})")
     lines.append(f"reflected current  {_sign_text(s.current_sign)} "
@@ -167,7 +167,7 @@ def _forward_report(args, s, through) -> tuple[dict, list[str]]:
         tau = (f", time constant {fmt.time(s.time_constant_s)}" if s.time_constant_s else "")
         lines.append(f"step on a trace    starts at {s.step_start:+.3f}, settles at "
                      f"{s.step_final:+.3f}{tau}")
-    lines.append(f"what it shows      {s.sentence}")
+    lines += fmt.wrapped(f"what it shows      {s.sentence}")
     if through is not None:
         zin = complex(through.input_impedance_ohm)
         data.update({
@@ -210,7 +210,7 @@ def _figure_lines(gamma, rl, vswr, ml, missing: str) -> list[str]:
 
 
 def _sign_text(sign: str) -> str:
-    return {"same": "same sign as the incident", "inverted": "inverted",
+    return {"same": "same sign", "inverted": "inverted",
             "reversed": "reversed", "none": "none"}[sign]
 
 
@@ -265,16 +265,17 @@ def _backwards(args, z0: float) -> tuple[dict, list[str]]:
         lines.append(f"settles to         {r.settles_to:+.3f}")
     lines += [f"implies            {fmt.impedance(r.impedance_ohm)} as a resistive load at the "
               f"end of a {fmt.impedance(z0)} line",
-              f"likely kind        {r.kind}",
-              f"what it shows      {r.sentence}",
-              "it could also be:"]
-    lines += [f"  - {alt}" for alt in r.alternatives]
+              f"likely kind        {r.kind}"]
+    lines += fmt.wrapped(f"what it shows      {r.sentence}")
+    lines.append("it could also be:")
+    for alt in r.alternatives:
+        lines += fmt.wrapped(f"  - {alt}", indent=4)
     if r.series_resistance_ohm is not None:
         lines.append(f"    (as a resistance in series in a joint: "
                      f"{fmt.impedance(r.series_resistance_ohm)})")
     if r.shunt_resistance_ohm is not None:
         lines.append(f"    (as a resistance across the line: "
                      f"{fmt.impedance(r.shunt_resistance_ohm)})")
-    lines.append("A level alone cannot tell these apart: look at what the trace does after "
-                 "the step, and compare with 'halftrip simulate'.")
+    lines += fmt.wrapped("A level alone cannot tell these apart: look at what the trace does "
+                         "after the step, and compare with 'halftrip simulate'.", indent=0)
     return data, lines

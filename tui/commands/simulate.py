@@ -117,8 +117,6 @@ def _data(args, p) -> dict:
 
 
 def _lines(args, segments, p) -> list[str]:
-    import textwrap
-
     from tui import fmt
 
     units, fraction = units_of(args)
@@ -126,33 +124,33 @@ def _lines(args, segments, p) -> list[str]:
     edge = (f"pulse {fmt.time(p.pulse_width_s)} wide, edges {fmt.time(p.rise_time_s)}"
             if p.pulse_width_s else f"step, rise time {fmt.time(p.rise_time_s)} (10-90 %)")
     total = sum(s.length_m for s in segments)
-    lines = [
-        f"run        {args.run}  ({len(segments)} segments, {length(total)}, round trip "
-        f"{fmt.time(p.round_trip_s)})",
-        f"load       {args.load}" + (f"   lumps: {', '.join(args.lump)}" if args.lump else ""),
-        f"instrument source {fmt.impedance(p.source_z_ohm)}, {edge}",
-        f"window     {fmt.time(p.span_s)}, {p.time_s.size} points",
-        "",
-        "level (reflected / incident) against distance from the instrument:",
-    ]
+    lines = []
+    for line in (f"run        {args.run}  ({len(segments)} segments, {length(total)}, round "
+                 f"trip {fmt.time(p.round_trip_s)})",
+                 f"load       {args.load}" + (f"   lumps: {', '.join(args.lump)}"
+                                              if args.lump else ""),
+                 f"instrument source {fmt.impedance(p.source_z_ohm)}, {edge}",
+                 f"window     {fmt.time(p.span_s)}, {p.time_s.size} points"):
+        lines += fmt.wrapped(line, indent=11)
+    lines += ["", "level (reflected / incident) against distance from the instrument:"]
     lines += fmt.text_plot(p.distance_m, p.level, width=70, height=11, x_label=length)
     lines.append("")
     shown = sorted(sorted(p.arrivals, key=lambda a: -max(abs(a.size), abs(a.start or 0)))
                    [:SHOWN_ARRIVALS], key=lambda a: a.time_s)
     if shown:
-        lines.append(f"{'time':>10} {'distance':>14} {'size':>7} {'first':>7}  path")
+        lines.append(f"{'time':>10} {'distance':>17} {'size':>7} {'first':>7}  path")
         for a in shown:
-            head = (f"{fmt.time(a.time_s):>10} {length(a.distance_m):>14} {a.size:>+7.3f} "
+            head = (f"{fmt.time(a.time_s):>10} {length(a.distance_m):>17} {a.size:>+7.3f} "
                     f"{a.start:>+7.3f}  ")
-            wrapped = textwrap.wrap(a.path, width=78 - len(head)) or [""]
-            lines.append(head + wrapped[0])
-            lines += [" " * len(head) + w for w in wrapped[1:]]
+            lines += fmt.wrapped(head + a.path, indent=len(head))
         if len(p.arrivals) > len(shown):
             lines.append(f"({len(p.arrivals) - len(shown)} smaller echoes in --json)")
-        lines.append("size: the level the echo adds once settled; first: the dip or bump it "
-                     "shows first. A re-reflection shows beyond the place that made it.")
+        lines += fmt.wrapped("size: the level the echo adds once settled; first: the dip or "
+                             "bump it shows first. A re-reflection shows beyond the place that "
+                             "made it.", indent=0)
     else:
         lines.append("no echo above 0.001 of the incident step: the run looks matched.")
     for code in p.warnings:
-        lines.append("note: " + WARNING_TEXT[code].format(rise=fmt.time(p.rise_time_s)))
+        lines += fmt.wrapped("note: " + WARNING_TEXT[code].format(rise=fmt.time(p.rise_time_s)),
+                             indent=6)
     return lines

@@ -97,15 +97,17 @@ def _read_bytes(path_text: str) -> bytes:
         raise InputError(path_text, f"cannot read it ({exc.strerror or exc})") from None
 
 
-def _run(text: str, field: str, tolerance: float | None = None):
-    """A run from the catalog (hazard cautions on stderr); ``tolerance`` overrides each VF's."""
+def _run(text: str, field: str, tolerance: float | None = None, warned=()):
+    """A run from the catalog; ``tolerance`` overrides each VF's. The hazard
+    caution goes to stderr for cables not already in ``warned``."""
     from calc.run import parse_run
     from tui.commands.common import catalog, warn_hazards
     from tui.commands.locate import parse_run_segments
 
     segments = parse_run_segments(text, tolerance) if field == "--run" else \
         parse_run(text, catalog().get, field)
-    warn_hazards([s.cable for s in segments])
+    known = {c.id for c in warned if c is not None}
+    warn_hazards([s.cable for s in segments if s.cable.id not in known])
     return segments
 
 
@@ -223,6 +225,10 @@ def analyse_file(args):
         level = got.level
         if args.incident == "auto":
             incident = got.level_unit != "rho"
+            if not got.level_unit and not args.level_unit:
+                notes.append("the level's unit is not stated: it is taken as the instrument's "
+                             "own, with its incident edge in the trace; if the trace holds "
+                             "reflections only, give --level-unit rho")
         else:
             incident = args.incident == "in-trace"
         if not incident and got.level_unit == "V":
@@ -257,7 +263,8 @@ def compare_with_expected(args, setup, analysis):
     if not (args.expect_run and args.expect_load):
         raise InputError("--expect-run/--expect-load", "give both the expected run and the "
                          "load it should end in", "--expect-load open")
-    segments = _run(args.expect_run, "--expect-run")
+    used = [s.cable for s in setup.segments] if setup.segments else [setup.cable]
+    segments = _run(args.expect_run, "--expect-run", warned=used)
     load = parse_load(args.expect_load, "--expect-load", lookup=catalog().get)
     pieces = ev.run_segments(segments)
     round_trip = 2.0 * sum(p.delay_s for p in pieces)
@@ -400,12 +407,14 @@ def describe_event(e, z0_ohm: float, events=()) -> str:
         return (f"{e.size:+.3f} after the far end (an open, a short or the end of the described "
                 "run): most likely a re-reflection, the wave's second trip between two "
                 "mismatches; or the run is longer than described")
+    creep = (f" and creeps on to {e.level_settled:+.3f}"
+             if abs(e.level_settled - e.level_after) > 0.05 else "")
     if kind == "open":
-        return (f"rises to {e.level_after:+.3f}{loss}: an open{at_end}, or a very high "
-                "impedance (a broken centre conductor, an unterminated end)")
+        return (f"rises to {e.level_after:+.3f}{creep}{loss}: an open{at_end}, or a very "
+                "high impedance (a broken centre conductor, an unterminated end)")
     if kind == "short":
-        return (f"falls to {e.level_after:+.3f}{loss}: a short{at_end}, or a very low "
-                "impedance (a crushed or shorted cable, water in a connector)")
+        return (f"falls to {e.level_after:+.3f}{creep}{loss}: a short{at_end}, or a very "
+                "low impedance (a crushed or shorted cable, water in a connector)")
     if kind == "end_of_run":
         return f"step of {e.size:+.3f} at the far end of the run: a load of about " \
                f"{z_text(e.level_after)}"
@@ -513,11 +522,12 @@ def describe(info: dict, notes: list[str], analysis, units: str, fraction: int) 
 
 
 def _fit(lines: list[str]) -> list[str]:
-    """Lines wrapped to the 80 columns of a field laptop's terminal."""
+    """Lines folded to the 80 columns of a field laptop's terminal."""
+    from tui.fmt import wrapped
+
     out = []
     for line in lines:
-        out += textwrap.wrap(line, _WIDTH, subsequent_indent="    ",
-                             break_on_hyphens=False) if len(line) > _WIDTH else [line]
+        out += wrapped(line, indent=4, width=_WIDTH) if len(line) > _WIDTH else [line]
     return out
 
 

@@ -92,11 +92,11 @@ class LiveForm(Vertical):
     def on_mount(self) -> None:
         self.watch(self.app, "core_ready", self._core_ready_changed)
         self.watch(self.app, "unit_system", self._units_changed, init=False)
-        from textual.widgets import TabbedContent
+        from textual.widgets import ContentSwitcher
 
-        tabs = next((a for a in self.ancestors if isinstance(a, TabbedContent)), None)
-        if tabs is not None:  # the panel's warning line follows the tab on show
-            self.watch(tabs, "active", lambda _active: self._set_hazards(), init=False)
+        modes = next((a for a in self.ancestors if isinstance(a, ContentSwitcher)), None)
+        if modes is not None:  # the panel's warning line follows the mode shown
+            self.watch(modes, "current", lambda _now: self._set_hazards(), init=False)
 
     def _core_ready_changed(self, ready: bool) -> None:
         if ready:
@@ -108,7 +108,7 @@ class LiveForm(Vertical):
         if self.last_result is not None:
             view = self.result_view()
             stale = view.is_stale
-            view.update(self.describe(self.last_result))
+            view.show_text(self.describe(self.last_result))
             if stale:
                 view.mark_stale(error_beside(self.last_error) if self.last_error else None)
 
@@ -204,5 +204,5 @@ class LiveForm(Vertical):
             if lines:
                 lines.first().set_hazards(self._hazards)
                 return
-            if not node.display:  # a tab not shown: its hazards wait for the tab
+            if not node.display:  # a mode not shown: its hazards wait for it
                 return

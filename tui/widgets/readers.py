@@ -84,6 +84,17 @@ def delay_or_resonance(text: str, label: str) -> tuple[str, float]:
     return ("delay" if kind == "time" else "resonance"), value
 
 
+def angle_or_length(text: str, label: str) -> tuple[str, float]:
+    """``("angle", degrees)`` for an electrical length (``90``, ``0.25 wl``), or
+    ``("length", metres)`` for a piece's physical length (``339 mm``)."""
+    return _first_fitting(text, label, ("angle", "length"), "90 deg, 0.25 wl (or 339 mm)")
+
+
+def text(text: str, label: str) -> str:
+    """The text as typed (for a field the core parses itself)."""
+    return text.strip()
+
+
 def choice(*words: str) -> Callable[[str, str], str]:
     """A reader for one of ``words`` (a unique start is enough: ``s`` for ``short``)."""
 
