@@ -129,3 +129,26 @@ def run_reader(catalog: Callable[[], object]) -> Callable[[str, str], tuple]:
         return parse_run(text, catalog().get, label)
 
     return read
+
+
+def load_reader(catalog: Callable[[], object]) -> Callable[[str, str], object]:
+    """A reader for a load, ``open``, ``75 ohm``, ``75 ohm || 10 pF``, ``cable:rg59``
+    (:func:`calc.loads.parse_load`)."""
+
+    def read(text: str, label: str):
+        from calc.loads import parse_load
+
+        return parse_load(text, label, lookup=catalog().get)
+
+    return read
+
+
+def as_text(reader: Callable[[str, str], object]) -> Callable[[str, str], str]:
+    """``reader`` as a check only: the value is the stripped text itself (for a
+    panel that hands the text to the CLI command's own code, checked as typed)."""
+
+    def read(text: str, label: str) -> str:
+        reader(text, label)
+        return text.strip()
+
+    return read
