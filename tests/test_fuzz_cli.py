@@ -126,7 +126,7 @@ def _check(argv: list[str]) -> None:
     if code == 2:
         assert out == "", f"stdout on refusal for {argv!r}"
         refusals = [ln for ln in err.splitlines() if not ln.startswith("halftrip: caution")
-                    and not ln.startswith("halftrip: catalog")]
+                    and not ln.startswith(("halftrip: catalog", "halftrip: preferences"))]
         assert len(refusals) == 1, f"not one line for {argv!r}: {err!r}"
     elif "--json" in argv:
         assert isinstance(json.loads(out), dict)
