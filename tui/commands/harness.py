@@ -56,7 +56,7 @@ def add_arguments(parser) -> None:
 def compute(args):
     """(data, lines, cables used): what ``run`` prints, also shown by the TUI's panel."""
     from calc.errors import InputError
-    from calc.match import harness
+    from calc.match import MAX_ANTENNAS, harness
     from calc.parse import parse
     from tui import fmt
 
@@ -66,8 +66,8 @@ def compute(args):
     frequency = parse(args.frequency, "--frequency", "frequency")
     band = band_of(args)
     span = None if args.span is None else parse(args.span, "--span", "length")
-    if span is not None:
-        reach_m = (args.antennas - 1) * span / 2.0
+    if span is not None:  # the count is clamped only to keep this finite; harness() refuses it
+        reach_m = (min(args.antennas, MAX_ANTENNAS + 1) - 1) * span / 2.0
     else:
         reach_m = 0.0 if args.arm_reach is None else parse(args.arm_reach, "--arm-reach", "length")
     slack = 0.0 if args.slack is None else parse(args.slack, "--slack", "length_or_zero")
