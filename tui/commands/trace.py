@@ -340,7 +340,7 @@ def describe_comparison(cmp, analysis, units: str, fraction: int) -> list[str]:
     if not (cmp.unexpected or cmp.missing or cmp.misplaced):
         lines.append("  every event is where the expected run puts it")
     lines.append(f"  (matched within {TOLERANCE_RISE_TIMES:g} rise times plus the cables' VF "
-                 f"tolerance, {cmp.vf_tolerance * 100:.3g} % of the delay)")
+                 f"tolerance, {fmt.percent(cmp.vf_tolerance)} of the delay)")
     return _fit(lines)
 
 
