@@ -210,7 +210,7 @@ def _lines(h, span, allowance, units, fraction, fmt) -> list[str]:
     rows = [("", *(fmt.frequency(x) for x in ph.frequencies_hz[cols]), "")]
     rows.append((f"cut within +/- {fmt.length(ph.cut_tolerance_m, units, fraction)}",
                  *(f"{x:.2f}" for x in ph.cut_spread_deg[cols]), "deg, arms from one roll"))
-    rows.append((f"rolls with VF +/- {ph.vf_tolerance * 100:.0f} %",
+    rows.append((f"rolls with VF +/- {fmt.percent(ph.vf_tolerance)}",
                  *(f"{x:.2f}" for x in ph.vf_spread_deg[cols]), "deg"))
     lines.append("arm-to-arm phase spread, worst case (two arms at opposite ends of a "
                  "tolerance):")
