@@ -292,6 +292,7 @@ def test_rise_time_limited_by_grid_is_reported():
     (dict(n_points=10), "--points"),
     (dict(load=parse_load("60+40j ohm")), "--load"),
     (dict(source_z_ohm=0.0), "--source-z"),
+    (dict(source_z_ohm=1e100), "--source-z"),  # an open for a source: nothing to drive
     (dict(rise_time_s=-1e-9), "--rise-time"),
 ])
 def test_refusals(kwargs, field):
