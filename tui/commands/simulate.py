@@ -65,6 +65,13 @@ def _points(text: str | None) -> int | None:
 
 
 def run(args) -> int:
+    segments, prediction = predict(args)
+    return emit(args, _data(args, prediction), _lines(args, segments, prediction))
+
+
+def predict(args):
+    """(run segments, :class:`calc.simulate.Prediction`) for these options (the TUI's
+    Echo panel predicts with the same call)."""
     from calc.loads import parse_load
     from calc.parse import parse
     from calc.run import parse_run
@@ -83,7 +90,7 @@ def run(args) -> int:
         n_points=_points(args.points),
         span_s=parse(args.span, "--span", "time") if args.span else None,
     )
-    return emit(args, _data(args, prediction), _lines(args, segments, prediction))
+    return run_segments, prediction
 
 
 def _data(args, p) -> dict:
