@@ -20,8 +20,6 @@ SHOWN_ARRIVALS = 16
 WARNING_TEXT = {
     "rise-time-limited": "the grid is too coarse for the rise time asked for; the edge shown "
                          "is {rise}: give more --points or a shorter --span",
-    "tail-folds": "this run rings longer than the largest window holds; a little of its tail "
-                  "folds back into the trace",
     "arrivals-truncated": "there are more small echoes than are listed",
 }
 
