@@ -87,11 +87,11 @@ def bench_first_frame(runs: int) -> tuple[float, float, float]:
                HALFTRIP_CONFIG_DIR=f"{tmp}/config")
     # warm the OS file cache and bytecode for both before measuring
     first_frame_s(MINIMAL, b"minimal-first-frame", env)
-    first_frame_s(HALFTRIP, b"lengths:", env)
+    first_frame_s(HALFTRIP, b"metric", env)
     minimal, ours, form = [], [], []
     for _ in range(runs):
         minimal.append(first_frame_s(MINIMAL, b"minimal-first-frame", env))
-        frame, fields = first_frame_s(HALFTRIP, b"lengths:", env, then=b"cable or velocity")
+        frame, fields = first_frame_s(HALFTRIP, b"metric", env, then=b"cable or velocity")
         ours.append(frame)
         form.append(fields)
     return statistics.median(minimal), statistics.median(ours), statistics.median(form)

@@ -54,7 +54,7 @@ async def test_units_switch_is_remembered_between_sessions():
         await pilot.press("f9")
         await pilot.pause()
         assert app.unit_system == ("imperial", 16)
-        assert "ft-in" in str(app.query_one("#panel-bar-units").render())
+        assert "ft-in 1/16" in str(app.query_one("#panel-bar-units").render())
     saved = tomllib.loads(preferences_path().read_text(encoding="utf-8"))
     assert saved["units"] == "imperial"
     again = create_app()

@@ -54,6 +54,12 @@ def add_arguments(parser) -> None:
 
 
 def run(args) -> int:
+    data, lines, _cables = compute(args)
+    return emit(args, data, lines)
+
+
+def compute(args):
+    """(data, lines, cables used): what ``run`` prints, also shown by the TUI's panel."""
     from calc.parse import parse
 
     z0 = parse(args.z0, "--z0", "impedance")
@@ -63,7 +69,7 @@ def run(args) -> int:
 
 
 # -- forward ------------------------------------------------------------------
-def _forward(args, z0: float) -> int:
+def _forward(args, z0: float):
     from calc.errors import InputError
     from calc.loads import parse_load, seen_through, summarize
     from calc.parse import parse
@@ -89,7 +95,7 @@ def _forward(args, z0: float) -> int:
             raise InputError("--vf", "goes with --through LENGTH", "--through '3 m' --vf 0.66")
         summary = summarize(load, z0, f)
     data, lines = _forward_report(args, summary, through)
-    return emit(args, data, lines)
+    return data, lines, []
 
 
 def _through_segments(args, z0: float):
@@ -227,7 +233,7 @@ def _level(text: str, field: str, incident: float | None) -> float:
     return parse(text, field, "ratio")
 
 
-def _backwards(args, z0: float) -> int:
+def _backwards(args, z0: float):
     from calc.errors import InputError
     from calc.loads import from_observed_step
     from calc.parse import parse
@@ -274,4 +280,4 @@ def _backwards(args, z0: float) -> int:
                      f"{fmt.impedance(r.shunt_resistance_ohm)})")
     lines += fmt.wrapped("A level alone cannot tell these apart: look at what the trace does "
                          "after the step, and compare with 'halftrip simulate'.", indent=0)
-    return emit(args, data, lines)
+    return data, lines, []

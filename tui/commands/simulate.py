@@ -67,13 +67,20 @@ def _points(text: str | None) -> int | None:
 
 
 def run(args) -> int:
+    data, lines, cables, _prediction = compute(args)
+    warn_hazards(cables)
+    return emit(args, data, lines)
+
+
+def compute(args):
+    """(data, lines, cables used, prediction): what ``run`` prints, and the
+    :class:`calc.simulate.Prediction` the TUI plots."""
     from calc.loads import parse_load
     from calc.parse import parse
     from calc.run import parse_run
     from calc.simulate import Segment, parse_lump, simulate
 
     run_segments = parse_run(args.run, catalog().get, "--run")
-    warn_hazards([s.cable for s in run_segments])
     segments = [Segment.from_run_segment(s) for s in run_segments]
     load = parse_load(args.load, "--load", lookup=lambda cid: catalog().get(cid))
     lumps = [parse_lump(text, len(segments)) for text in args.lump]
@@ -85,7 +92,8 @@ def run(args) -> int:
         n_points=_points(args.points),
         span_s=parse(args.span, "--span", "time") if args.span else None,
     )
-    return emit(args, _data(args, prediction), _lines(args, segments, prediction))
+    return (_data(args, prediction), _lines(args, segments, prediction),
+            [s.cable for s in run_segments], prediction)
 
 
 def _data(args, p) -> dict:

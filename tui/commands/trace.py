@@ -181,7 +181,8 @@ class _Setup:
 
 
 def analyse_file(args):
-    """Read, transform (sweeps), analyse and place: (data dict, human lines)."""
+    """Read, transform (sweeps), analyse and place: (setup, info, notes, analysis,
+    (time_s, level) samples)."""
     import numpy as np
 
     from calc import events as ev
@@ -246,7 +247,7 @@ def analyse_file(args):
     if setup.cable is None and setup.segments is None:
         notes.append("no loss model with a bare velocity: far events read smaller than they "
                      "are; give --cable or --run for the cable's loss")
-    return setup, info, notes, analysis
+    return setup, info, notes, analysis, (np.asarray(time_s), np.asarray(level))
 
 
 def compare_with_expected(args, setup, analysis):
@@ -530,8 +531,15 @@ def _fit(lines: list[str]) -> list[str]:
 
 
 def run(args) -> int:
+    data, lines, _cables, _trace = compute(args)
+    return emit(args, data, lines)
+
+
+def compute(args):
+    """(data, lines, cables used, (time_s, level, analysis, setup)): what ``run`` prints,
+    and the samples and events the TUI plots."""
     units, fraction = units_of(args)
-    setup, info, notes, analysis = analyse_file(args)
+    setup, info, notes, analysis, (time_s, level) = analyse_file(args)
     a = analysis
     data = {
         **info,
@@ -549,4 +557,4 @@ def run(args) -> int:
         data.update(expected_run=args.expect_run, expected_load=args.expect_load,
                     **comparison_data(cmp, analysis))
         lines += describe_comparison(cmp, analysis, units, fraction)
-    return emit(args, data, lines)
+    return data, lines, [], (time_s, level, analysis, setup)

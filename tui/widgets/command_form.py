@@ -71,8 +71,11 @@ class CommandForm(LiveForm):
             return [f"--{option}"] if text.lower().startswith("y") else []
         return [f"--{option}={text}"]
 
-    def compute(self, values):
-        return self._run(self.argv())
+    def prepare(self, values):
+        return self.argv()
+
+    def compute(self, argv):
+        return self._run(argv)
 
     def _run(self, argv: list[str]):
         import importlib
@@ -86,8 +89,8 @@ class CommandForm(LiveForm):
             args = parser.parse_args(argv + units)
         except _Refused as exc:
             raise _as_input_error(str(exc)) from None
-        data, lines, cables = module.compute(args)
-        return data, lines, tuple(c for c in cables if c is not None), argv
+        data, lines, cables, *extra = module.compute(args)
+        return data, lines, tuple(c for c in cables if c is not None), argv, *extra
 
     def describe(self, result):
         return "\n".join(result[1])

@@ -8,7 +8,10 @@ and implement
   (a dict, field name -> value) and return its result object;
 * ``describe(result) -> str | Content``: format it with ``tui.fmt`` in
   ``self.units`` / ``self.fraction``;
-* optionally ``hazards(result) -> tags`` for the panel's warning line.
+* optionally ``hazards(result) -> tags`` for the panel's warning line,
+  ``prepare(values)`` (UI thread) to turn values into what ``compute`` takes,
+  ``shown(result)`` to draw a fresh result elsewhere (a plot), and
+  ``SLOW = True`` to run ``compute`` in a worker thread.
 
 The form does the rest: it parses every field on each change, shows each
 error beside its field, keeps the last good result on screen marked out of
@@ -19,8 +22,12 @@ redraws the last result when the unit system changes.
 
 from __future__ import annotations
 
+from typing import ClassVar
+
+from textual import work
 from textual.containers import Vertical
 from textual.widgets import Input
+from textual.worker import get_current_worker
 
 from calc.errors import InputError
 from tui.widgets.field import Field, error_beside
@@ -35,6 +42,8 @@ class LiveForm(Vertical):
     DEFAULT_CSS = """
     LiveForm { height: auto; }
     """
+    #: True: ``compute`` runs in a worker thread (simulations, trace analysis).
+    SLOW: ClassVar[bool] = False
 
     def __init__(self, *, id: str | None = None, classes: str | None = None) -> None:
         super().__init__(id=id, classes=classes)
@@ -108,36 +117,64 @@ class LiveForm(Vertical):
             return
         values: dict[str, object] = {}
         first_error: InputError | None = None
-        fields = self.fields()
-        for f in fields:
+        for f in self.fields():
             try:
                 values[f.field_name] = f.read()
                 f.show_error(None)
             except InputError as exc:
                 f.show_error(exc)
                 first_error = first_error or exc
-        view = self.result_view()
-        if first_error is None:
-            try:
-                result = self.compute(values)
-            except InputError as exc:
-                first_error = exc
-                owner = self._owner(fields, exc)
-                if owner is not None:
-                    owner.show_error(exc)
         if first_error is not None:
-            self.last_error = first_error
+            self._finish(None, first_error)
+            return
+        try:
+            prepared = self.prepare(values)
+            if self.SLOW:
+                self.result_view().working()
+                self._compute_off_thread(prepared)
+                return
+            self._finish(self.compute(prepared), None)
+        except InputError as exc:
+            self._finish(None, exc)
+
+    def prepare(self, values: dict[str, object]):
+        """What ``compute`` gets, made on the UI thread (default: the values)."""
+        return values
+
+    @work(thread=True, exclusive=True, group="compute")
+    def _compute_off_thread(self, prepared) -> None:
+        """``compute`` in a worker thread (``SLOW`` forms); the newest keystroke wins."""
+        worker = get_current_worker()
+        try:
+            result, error = self.compute(prepared), None
+        except InputError as exc:
+            result, error = None, exc
+        if not worker.is_cancelled:
+            self.app.call_from_thread(self._finish, result, error)
+
+    def _finish(self, result, error: InputError | None) -> None:
+        """Show a fresh result, or ``error`` beside its field with the last good
+        result kept and marked out of date."""
+        view = self.result_view()
+        if error is not None:
+            self.last_error = error
+            owner = self._owner(self.fields(), error)
+            if owner is not None:
+                owner.show_error(error)
             if self.last_result is None:
-                view.waiting("nothing yet: " + str(first_error))
+                view.waiting("nothing yet: " + str(error))
             else:
-                owned = self._owner(fields, first_error) is not None
-                view.mark_stale(None if owned else str(first_error))
+                view.mark_stale(None if owner is not None else str(error))
             return
         self.last_error = None
         self.last_result = result
         view.show(self.describe(result))
+        self.shown(result)
         self._hazards = tuple(self.hazards(result))
         self._set_hazards()
+
+    def shown(self, result) -> None:
+        """Called after a fresh result is shown (a plot, say, draws it here)."""
 
     def _owner(self, fields: list[Field], exc: InputError) -> Field | None:
         """The field an error names: by label, or by the CLI option the core named

@@ -13,9 +13,9 @@ from tui.widgets.key_bar import KeyBar
 
 
 def units_label(units: tuple[str, int]) -> str:
-    """``"lengths: m"`` or ``"lengths: ft-in 1/16"``."""
+    """``"metric"`` or ``"ft-in 1/16"``: how lengths are shown (u switches)."""
     system, fraction = units
-    return "lengths: m" if system == "metric" else f"lengths: ft-in 1/{fraction}"
+    return "metric" if system == "metric" else f"ft-in 1/{fraction}"
 
 
 class PanelBar(KeyBar):

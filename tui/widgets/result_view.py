@@ -23,6 +23,8 @@ class ResultView(Static):
             self.remove_class("-stale", "-waiting")
             self.border_title = FRESH_TITLE
             self.border_subtitle = ""
+        elif self.border_subtitle:
+            self.border_subtitle = ""
         self.show_text(content)
 
     def show_text(self, content) -> None:
@@ -51,9 +53,11 @@ class ResultView(Static):
         self.border_subtitle = ""
         self.show_text(text)
 
+    def working(self) -> None:
+        """A slow result is being worked out (what is shown stays until it comes)."""
+        self.border_subtitle = "working..."
+
     @property
     def is_stale(self) -> bool:
         return self.has_class("-stale")
 
-    def clear_reason(self) -> None:
-        self.border_subtitle = ""
