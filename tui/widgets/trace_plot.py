@@ -27,6 +27,31 @@ from textual.widgets import Static
 FOOT_M = 0.3048
 
 
+def _styled_blanks(canvas) -> None:
+    """Give the canvas's blank lines an (empty) style.
+
+    textual-hires-canvas returns a blank line with no style before the plot
+    is sized, and Textual's NO_COLOR filter fails on a segment with no style
+    (AttributeError in its monochrome filter); an empty style is the same on
+    screen. Only this canvas instance is changed.
+    """
+    from rich.segment import Segment
+    from rich.style import Style
+    from textual.strip import Strip
+
+    render_line = canvas.render_line
+    empty = Style()
+
+    def styled(y: int) -> Strip:
+        strip = render_line(y)
+        if all(seg.style is not None for seg in strip):
+            return strip
+        return Strip([Segment(seg.text, seg.style or empty, seg.control) for seg in strip],
+                     strip.cell_length)
+
+    canvas.render_line = styled
+
+
 @dataclass(frozen=True)
 class Marker:
     """An event to mark: where (metres, round-trip seconds) and a short name."""
@@ -76,6 +101,10 @@ class TracePlot(Vertical):
         yield Static("", id="plot-readout", markup=False)
 
     def on_mount(self) -> None:
+        from textual_hires_canvas import Canvas
+
+        for canvas in self.query(Canvas):
+            _styled_blanks(canvas)
         self.watch(self.app, "unit_system", lambda _u: self._draw(), init=False)
         self.watch(self.app, "theme", lambda _t: self._draw(), init=False)
 
