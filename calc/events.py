@@ -327,7 +327,8 @@ def analyse(time_s: np.ndarray, level: np.ndarray, *, z0_ohm: float = 50.0,
     hi = max(rho.size - a - w, lo)
     span = d[lo:hi]
     if span.size < 4:
-        raise InputError("trace", "the trace ends too soon after the incident edge to analyse")
+        raise InputError("trace", "too little of the trace follows the incident edge (or the "
+                         "reference plane) to analyse at its rise time")
     sigma_d = _mad_sigma(span)
     k_thin = max(1, (hi - lo) // 250_000)  # pairs of neighbours, thinned like _mad_sigma
     noise_rms = _mad_sigma(rho[lo + 1:hi:k_thin] - rho[lo:hi - 1:k_thin]) / math.sqrt(2.0)

@@ -180,3 +180,36 @@ def test_fuzzed_files_end_in_a_result_or_one_clear_line(capsys, tmp_path, lines,
         assert isinstance(json.loads(out), dict)
     else:
         assert out == "" and len(err.strip().splitlines()) == 1
+
+
+def test_wording_of_a_section_and_its_far_end(capsys):
+    # Kestrel Ridge (invented): 1.5 m of wet hardline (about 40 ohm) in the 50 ohm
+    # run. Reading a TDR trace (common practice): a step down, then a step back up
+    # to the line's own impedance, is one lower-impedance section and its far end,
+    # not a lower section followed by a higher one.
+    code, out, _err = run(capsys, "trace", KESTREL_S1P, "--run", RUN, "--band", "0.5-1000 MHz")
+    assert code == 0
+    text = " ".join(out.split())
+    assert "step down of -0.104 to about" in text
+    assert "back to about 49.4 ohm: the far end of the lower-impedance section before it" in text
+    assert "re-reflection" in text and "re reflection" not in text
+    assert max(len(line) for line in out.splitlines()) <= 80
+
+
+def test_band_takes_the_forms_match_takes(capsys):
+    # One band syntax across the commands: "LOW-HIGH UNIT" as in match and harness,
+    # LOW..HIGH, and one open end.
+    a = _json(capsys, "trace", KESTREL_S1P, "--run", RUN, "--band", "0.5-800 MHz")
+    b = _json(capsys, "trace", KESTREL_S1P, "--run", RUN, "--band", "0.5 MHz..800 MHz")
+    c = _json(capsys, "trace", KESTREL_S1P, "--run", RUN, "--band", "..800 MHz")
+    for d in (a, b, c):
+        assert d["time_domain"]["band_high_hz"] == pytest.approx(800e6)
+    assert a["events"] == b["events"] == c["events"]
+
+
+def test_a_problem_with_the_trace_itself_names_the_file(capsys, tmp_path):
+    path = tmp_path / "two-points.s1p"
+    path.write_text("# kHz S DB R 75\n500 -3 10\n1000 -3.1 -20\n")
+    code, out, err = run(capsys, "trace", str(path), "--vf", "0.66")
+    assert code == 2 and out == ""
+    assert err.startswith(f"halftrip trace: {path}: ") and len(err.strip().splitlines()) == 1

@@ -73,6 +73,18 @@ def decibels(db: float) -> str:
     return "infinite (no reflection)" if not math.isfinite(db) else f"{db:.2f} dB"
 
 
+def vf(x: float, digits: int = 3) -> str:
+    """A velocity factor: ``"0.660"`` (a catalog or stated one); a measured or
+    derived one carries ``digits=4`` (``"0.6605"``)."""
+    return "-" if x is None or not math.isfinite(x) else f"{x:.{digits}f}"
+
+
+def percent(fraction: float) -> str:
+    """A relative figure as a percentage, three significant digits at most:
+    0.03 -> ``"3 %"``, 0.025 -> ``"2.5 %"``, 0.00816 -> ``"0.816 %"``."""
+    return "-" if fraction is None or not math.isfinite(fraction) else f"{fraction * 100:.3g} %"
+
+
 def ratio(x: float, digits: int = 4) -> str:
     return "infinite" if not math.isfinite(x) else f"{x:.{digits}g}"
 

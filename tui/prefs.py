@@ -96,13 +96,16 @@ def load_preferences(path: Path | None = None) -> Preferences:
         path = preferences_path()
     path = Path(path)
     try:
-        data = tomllib.loads(path.read_text(encoding="utf-8"))
+        text = path.read_text(encoding="utf-8")
+        data = tomllib.loads(text)
     except FileNotFoundError:
         return Preferences()
     except (OSError, UnicodeDecodeError, tomllib.TOMLDecodeError) as exc:
         return Preferences(problems=(f"{path}: cannot read it ({exc}); using defaults and "
                                      "leaving the file as it is",), writable=False)
     problems: list[str] = []
+    if not text.strip():  # nothing in it to lose: defaults, and the file may be written
+        problems.append(f"{path}: the file is empty; using defaults")
     typed: dict[str, object] = {}
     modules: dict[str, dict] = {}
     unknown: dict[str, object] = {}

@@ -117,8 +117,8 @@ def describe_calibration(cal, units: str = "metric", fraction: int = 16) -> list
                                       f"{fmt.frequency(cal.frequency_resolution_hz)}, order "
                                       f"{cal.order}: the stub is {cal.quarter_waves} quarter "
                                       "wave(s)"))
-    lines.append(row("measured VF", f"{cal.vf:.4f}  ({cal.vf_low:.4f} to {cal.vf_high:.4f}, "
-                                    f"+/- {cal.vf_tolerance * 100:.1f} %)"))
+    lines.append(row("measured VF", f"{fmt.vf(cal.vf, 4)}  ({fmt.vf(cal.vf_low, 4)} to "
+                                    f"{fmt.vf(cal.vf_high, 4)}, +/- {fmt.percent(cal.vf_tolerance)})"))
     return lines + describe(from_vf(cal.vf))[1:]
 
 

@@ -24,9 +24,13 @@ from functools import lru_cache
 from calc.errors import InputError
 
 
-def add_output_options(parser: argparse.ArgumentParser) -> None:
+def add_output_options(parser: argparse.ArgumentParser, lengths: bool = True) -> None:
+    """``--json``, and with ``lengths`` (a command that shows lengths) ``--units`` and
+    ``--fraction``."""
     out = parser.add_argument_group("output")
     out.add_argument("--json", action="store_true", help="print one JSON object on stdout")
+    if not lengths:
+        return
     out.add_argument("--units", choices=("metric", "imperial"), default=None,
                      help="lengths in metres or feet and inches (default: your preference)")
     out.add_argument("--fraction", type=int, choices=(8, 16, 32), default=None,
@@ -50,6 +54,8 @@ def _preferences() -> dict:
     except ImportError:  # preferences arrive with the terminal interface
         return {}
     prefs = load_preferences()
+    for problem in prefs.problems:
+        print(f"halftrip: preferences: {problem}", file=sys.stderr)
     return {"units": prefs.units, "fraction": prefs.fraction}
 
 

@@ -122,9 +122,9 @@ def _lines(plan, resolved, piece, units, fraction, fmt) -> list[str]:
                      f"is {fmt.degrees(plan.electrical_deg)}")
     else:
         lines.append(f"{fmt.degrees(plan.electrical_deg)} at {fmt.frequency(plan.frequency_hz)}")
-    tol = f" +/- {resolved.tolerance * 100:.0f} %" if resolved.tolerance else ""
+    tol = f" +/- {fmt.percent(resolved.tolerance)}" if resolved.tolerance else ""
     lines += [
-        f"velocity factor       {plan.vf:.3f}{tol} from {resolved.source}",
+        f"velocity factor       {fmt.vf(plan.vf)}{tol} from {resolved.source}",
         f"wavelength in line    {both(plan.wavelength_in_line_m)}",
         f"physical length       {both(plan.physical_length_m)} between reference planes",
     ]
@@ -143,7 +143,8 @@ def _lines(plan, resolved, piece, units, fraction, fmt) -> list[str]:
             unit = "quarter wave" if r.unit_deg == 90.0 else "half wave"
             how = f"{r.multiple} {unit}{'s' if r.multiple != 1 else ''} ({r.electrical_deg:g} deg)"
         lines.append(f"span                  {fmt.length(r.span_m, units, fraction)} as a "
-                     f"{r.kind}: {how}")
+                     f"{r.kind}:")
+        lines.append(f"                      {how}")
         lines.append(f"                      {fmt.length(r.spare_m, units, fraction)} of line "
                      "beyond the span")
     return lines

@@ -56,7 +56,7 @@ def add_arguments(parser) -> None:
 def compute(args):
     """(data, lines, cables used): what ``run`` prints, also shown by the TUI's panel."""
     from calc.errors import InputError
-    from calc.match import harness
+    from calc.match import MAX_ANTENNAS, harness
     from calc.parse import parse
     from tui import fmt
 
@@ -66,8 +66,8 @@ def compute(args):
     frequency = parse(args.frequency, "--frequency", "frequency")
     band = band_of(args)
     span = None if args.span is None else parse(args.span, "--span", "length")
-    if span is not None:
-        reach_m = (args.antennas - 1) * span / 2.0
+    if span is not None:  # the count is clamped only to keep this finite; harness() refuses it
+        reach_m = (min(args.antennas, MAX_ANTENNAS + 1) - 1) * span / 2.0
     else:
         reach_m = 0.0 if args.arm_reach is None else parse(args.arm_reach, "--arm-reach", "length")
     slack = 0.0 if args.slack is None else parse(args.slack, "--slack", "length_or_zero")
@@ -210,7 +210,7 @@ def _lines(h, span, allowance, units, fraction, fmt) -> list[str]:
     rows = [("", *(fmt.frequency(x) for x in ph.frequencies_hz[cols]), "")]
     rows.append((f"cut within +/- {fmt.length(ph.cut_tolerance_m, units, fraction)}",
                  *(f"{x:.2f}" for x in ph.cut_spread_deg[cols]), "deg, arms from one roll"))
-    rows.append((f"rolls with VF +/- {ph.vf_tolerance * 100:.0f} %",
+    rows.append((f"rolls with VF +/- {fmt.percent(ph.vf_tolerance)}",
                  *(f"{x:.2f}" for x in ph.vf_spread_deg[cols]), "deg"))
     lines.append("arm-to-arm phase spread, worst case (two arms at opposite ends of a "
                  "tolerance):")

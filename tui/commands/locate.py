@@ -56,10 +56,6 @@ def _row(label: str, text: str) -> str:
     return f"{label:<{_LABEL}} {text}"
 
 
-def _pct(fraction: float) -> str:
-    return f"{fraction * 100:.1f} %"
-
-
 def _span(low_m: float, high_m: float, units: str, fraction: int) -> str:
     from tui import fmt
 
@@ -104,7 +100,7 @@ def describe_location(loc, source: str, units: str = "metric", fraction: int = 1
     lines = [
         f"velocity from {source}",
         _row("round-trip delay", fmt.time(loc.round_trip_delay_s)),
-        _row("velocity factor", f"{loc.vf:.4g} +/- {_pct(loc.vf_tolerance)}"),
+        _row("velocity factor", f"{fmt.vf(loc.vf)} +/- {fmt.percent(loc.vf_tolerance)}"),
         _row("distance", fmt.length(loc.distance_m, units, fraction)),
         _row("range", _span(loc.distance_low_m, loc.distance_high_m, units, fraction)),
     ]
@@ -181,7 +177,8 @@ def describe_run(segments, units: str = "metric", fraction: int = 16) -> list[st
              f"{fmt.length(junctions[-1].distance_m, units, fraction)} to the far end"]
     for i, s in enumerate(segments, start=1):
         lines.append(f"  {i:>3}  {fmt.length(s.length_m, units, fraction):>17}  "
-                     f"{s.cable.id:<20} VF {s.cable.vf:.3g} +/- {_pct(s.cable.vf_tolerance)}")
+                     f"{s.cable.id:<20} VF {fmt.vf(s.cable.vf)} +/- "
+                     f"{fmt.percent(s.cable.vf_tolerance)}")
     lines.append("expected reflections (round trip from the instrument):")
     lines.append(f"  {'between':<9} {'distance':>17}  {'round trip':>10}  range")
     for j in junctions:
@@ -269,13 +266,14 @@ def describe_two_ended(loc, cable_id: str | None, units: str = "metric",
         _row("delay from end B", fmt.time(loc.delay_from_b_s)),
         _row("distance from A", fmt.length(loc.distance_from_a_m, units, fraction)),
         _row("distance from B", fmt.length(loc.distance_from_b_m, units, fraction)),
-        _row("implied VF", f"{loc.implied_vf:.4g}  (from the two readings and the length)"),
+        _row("implied VF", f"{fmt.vf(loc.implied_vf, 4)}  (from the two readings and the length)"),
     ]
     if loc.catalog_vf is None:
         return lines
     name = f" ({cable_id})" if cable_id else ""
-    lines.append(_row("catalog VF", f"{loc.catalog_vf:.4g} +/- {_pct(loc.vf_tolerance)}{name}, "
-                                    f"readings differ by {loc.vf_disagreement * 100:+.1f} %"))
+    lines.append(_row("catalog VF", f"{fmt.vf(loc.catalog_vf)} +/- {fmt.percent(loc.vf_tolerance)}"
+                                    f"{name}; the implied VF is {loc.vf_disagreement * 100:+.1f} %"
+                                    " off it"))
     if loc.disagrees:
         lines.append("warning: the implied VF is outside the catalog tolerance: the two readings")
         lines.append("         may not be the same event, or the length is wrong (or the catalog")

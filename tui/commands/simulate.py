@@ -20,8 +20,6 @@ SHOWN_ARRIVALS = 16
 WARNING_TEXT = {
     "rise-time-limited": "the grid is too coarse for the rise time asked for; the edge shown "
                          "is {rise}: give more --points or a shorter --span",
-    "tail-folds": "this run rings longer than the largest window holds; a little of its tail "
-                  "folds back into the trace",
     "arrivals-truncated": "there are more small echoes than are listed",
 }
 
@@ -126,7 +124,7 @@ def _lines(args, segments, p) -> list[str]:
             if p.pulse_width_s else f"step, rise time {fmt.time(p.rise_time_s)} (10-90 %)")
     total = sum(s.length_m for s in segments)
     lines = []
-    for line in (f"run        {args.run}  ({len(segments)} segments, {length(total)}, round "
+    for line in (f"run        {args.run}  ({len(segments)} segment{'s' if len(segments) > 1 else ''}, {length(total)}, round "
                  f"trip {fmt.time(p.round_trip_s)})",
                  f"load       {args.load}" + (f"   lumps: {', '.join(args.lump)}"
                                               if args.lump else ""),

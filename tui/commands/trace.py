@@ -112,19 +112,19 @@ def _run(text: str, field: str, tolerance: float | None = None, warned=()):
 
 
 def _band(text: str | None) -> tuple[float | None, float | None]:
-    from calc.errors import InputError
-    from calc.parse import parse
+    """``--band`` as (low, high) Hz: any form :func:`calc.parse.parse_band` reads
+    (``"1 MHz..2 GHz"``, ``"1-500 MHz"``, as ``match`` and ``harness`` take it), or
+    one open end (``"..2 GHz"``, ``"1 MHz.."``)."""
+    from calc.parse import parse, parse_band
 
     if not text:
         return None, None
-    if ".." not in text:
-        raise InputError("--band", "give LOW..HIGH", "1 MHz..2 GHz")
-    low, high = (p.strip() for p in text.split("..", 1))
-    f_lo = parse(low, "--band low", "frequency") if low else None
-    f_hi = parse(high, "--band high", "frequency") if high else None
-    if f_lo is not None and f_hi is not None and f_hi <= f_lo:
-        raise InputError("--band", "the high end must be above the low end", "1 MHz..2 GHz")
-    return f_lo, f_hi
+    t = text.strip()
+    if t.startswith(".."):
+        return None, parse(t[2:], "--band high", "frequency")
+    if t.endswith(".."):
+        return parse(t[:-2], "--band low", "frequency"), None
+    return parse_band(t, "--band")
 
 
 def _dc(text: str | None, z0: float) -> float | None:
@@ -181,7 +181,21 @@ class _Setup:
 
 
 def analyse_file(args):
-    """Read, transform (sweeps), analyse and place: (data dict, human lines)."""
+    """Read, transform (sweeps), analyse and place: (setup, info, notes, analysis).
+
+    A problem the analysis finds with the trace itself is reported against the file.
+    """
+    from calc.errors import InputError
+
+    try:
+        return _analyse_file(args)
+    except InputError as exc:
+        if exc.field != "trace":
+            raise
+        raise InputError(args.file, exc.problem, exc.example) from None
+
+
+def _analyse_file(args):
     import numpy as np
 
     from calc import events as ev
@@ -342,7 +356,7 @@ def describe_comparison(cmp, analysis, units: str, fraction: int) -> list[str]:
     if not (cmp.unexpected or cmp.missing or cmp.misplaced):
         lines.append("  every event is where the expected run puts it")
     lines.append(f"  (matched within {TOLERANCE_RISE_TIMES:g} rise times plus the cables' VF "
-                 f"tolerance, {cmp.vf_tolerance * 100:.3g} % of the delay)")
+                 f"tolerance, {fmt.percent(cmp.vf_tolerance)} of the delay)")
     return _fit(lines)
 
 
@@ -380,7 +394,8 @@ def event_record(e, z0_ohm: float, events=()) -> dict:
 
 
 def _kind_text(kind: str) -> str:
-    return kind.replace("_", " ")
+    """An event kind in words: ``"lower impedance"``, ``"re-reflection"``."""
+    return "re-reflection" if kind == "re_reflection" else kind.replace("_", " ")
 
 
 def describe_event(e, z0_ohm: float, events=()) -> str:
@@ -442,11 +457,27 @@ def describe_event(e, z0_ohm: float, events=()) -> str:
                 "spot, a tap) or a short piece of lower impedance")
     tail = (f" or, if the run ends here, a load of about {z_text(e.level_after)}"
             if "end_of_run" in e.alternatives else "")
+    if _back_to_line(e):
+        # a step that undoes the one before it: the far end of a section, not a new one
+        section = "lower" if kind == "higher_impedance" else "higher"
+        other = "higher" if kind == "higher_impedance" else "lower"
+        way = "up" if kind == "higher_impedance" else "down"
+        return (f"step {way} of {e.size:+.3f} back to about {z_text(e.level_after)}: the far end "
+                f"of the {section}-impedance section before it (or a {other}-impedance "
+                f"section){tail}")
     if kind == "higher_impedance":
         return (f"step up of {e.size:+.3f} to about {z_text(e.level_after)}: a higher-impedance "
                 f"section (a different cable, a stretched or damaged spot){tail}")
     return (f"step down of {e.size:+.3f} to about {z_text(e.level_after)}: a lower-impedance "
             f"section (water in the cable, a crushed spot, a different cable){tail}")
+
+
+def _back_to_line(e) -> bool:
+    """A section step that brings the level most of the way back to the line's own
+    (rho near 0) from the other side: the end of a section, read as such."""
+    if e.kind not in ("higher_impedance", "lower_impedance"):
+        return False
+    return e.level_before * e.size < 0 and abs(e.level_after) < 0.5 * abs(e.level_before)
 
 
 def _where(e, units: str, fraction: int) -> str:
@@ -505,7 +536,8 @@ def describe(info: dict, notes: list[str], analysis, units: str, fraction: int) 
                 bounces += 1
                 if bounces > SHOWN_BOUNCES:
                     continue
-            z = "open" if e.impedance_ohm == float("inf") else f"{e.impedance_ohm:.4g}"
+            z = ("-" if e.kind == "re_reflection" else "open" if e.impedance_ohm == float("inf")
+                 else f"{e.impedance_ohm:.4g}")  # a bounce's level is no impedance of the line
             dist = "-" if e.distance_m is None else fmt.length(e.distance_m, units, fraction)
             lines.append(f"{i:>2}  {fmt.time(e.round_trip_delay_s):>10}  {dist:>15}  "
                          f"{e.size:+7.3f}  {z:>7}  {_kind_text(e.kind):<17} {e.confidence:4.2f}")

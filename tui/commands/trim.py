@@ -74,7 +74,7 @@ def compute(args):
         f"           from {how}",
         f"keep       {both(t.keep_length_m)}  ({t.keep_fraction * 100:.2f} % of it)",
         f"cut off    {both(t.cut_off_m)}",
-        f"implied VF {t.implied_vf:.4f} (from the length and the measurement)",
+        f"implied VF {fmt.vf(t.implied_vf, 4)} (from the length and the measurement)",
         "Take off a little less, measure again, then finish (common practice).",
     ]
     return data, lines, []

@@ -55,9 +55,10 @@ class Modes(Vertical):
         return f"{self.prefix}-mode-{name}"
 
     def on_mount(self) -> None:
-        self.call_after_refresh(self._mount_rest)
+        self.call_after_refresh(self.mount_modes)
 
-    async def _mount_rest(self) -> None:
+    async def mount_modes(self) -> None:
+        """Mount every mode not mounted yet (they are, shortly after start-up)."""
         switcher = self.query_one(ContentSwitcher)
         for name, _title, widget in self.modes[1:]:
             if not switcher.query_children(f"#{self._mode_id(name)}"):
@@ -75,9 +76,17 @@ class Modes(Vertical):
 
     async def show(self, name: str) -> None:
         """Show mode ``name`` (mounting it if the start-up mount has not yet)."""
-        await self._mount_rest()
+        await self.mount_modes()
         self.query_one(ContentSwitcher).current = self._mode_id(name)
         self.query_one(KeyBar).current = name
+
+    async def show_containing(self, widget: Widget) -> None:
+        """Show the mode that holds ``widget``."""
+        for name, _title, _w in self.modes:
+            scroll = self.query_one(ContentSwitcher).query_children(f"#{self._mode_id(name)}")
+            if scroll and (widget is scroll.first() or scroll.first() in widget.ancestors):
+                await self.show(name)
+                return
 
     def shown_widget(self) -> Widget | None:
         return self.query_one(ContentSwitcher).visible_content
