@@ -46,10 +46,10 @@ class KeyBar(Static, can_focus=True):
     def _content(self) -> Content:
         parts = []
         for name, key, title in self.items:
-            part = Content.assemble(" ", (key, "dim"), " " if key else "", title, " ")
+            part = Content.assemble((key, "dim"), " " if key else "", title)
             part = part.stylize(f"@click=pick('{name}')")
             parts.append(part.stylize("reverse bold") if name == self.current else part)
-        return Content(" ").join(parts)
+        return Content("  ").join(parts)
 
     def watch_current(self) -> None:
         if self.is_mounted:

@@ -13,9 +13,10 @@ from tui.widgets.key_bar import KeyBar
 
 
 def units_label(units: tuple[str, int]) -> str:
-    """``"lengths: m"`` or ``"lengths: ft-in 1/16"``."""
+    """``"m"`` or ``"ft-in 1/16"``: the unit lengths are shown in (kept short so
+    every panel name fits an 80-column bar)."""
     system, fraction = units
-    return "lengths: m" if system == "metric" else f"lengths: ft-in 1/{fraction}"
+    return "m" if system == "metric" else f"ft-in 1/{fraction}"
 
 
 class PanelBar(KeyBar):

@@ -14,7 +14,11 @@ class ResultView(Static):
     text stays, dimmed, under a title that says it is out of date; this never
     relies on colour alone (the border and the title change too)."""
 
-    def on_mount(self) -> None:
+    def __init__(self, *args, **kwargs) -> None:
+        # Waiting from construction, not from mount: a result shown before the
+        # widget is mounted (a demo or a reopened entry) must not be retitled.
+        super().__init__(*args, **kwargs)
+        self.add_class("-waiting")
         self.border_title = WAITING_TITLE
 
     def show(self, content) -> None:
