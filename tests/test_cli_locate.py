@@ -91,6 +91,15 @@ def test_run_json(cli, cli_json):
         t0 + 90.0 / (vf1 * c0) + 3.0 / (vf0 * c0), rel=1e-12)
 
 
+def test_run_text_names_joints_in_words(cli):
+    # "1/2" beside a list of cables reads as half an inch (1/2 in hardline is a
+    # trade size, common practice): joints are "1 and 2"
+    code, out, _ = cli("locate", "300 ns", "--run", RUN)
+    assert code == 0
+    assert "  1 and 2 " in out and "  2 and 3 " in out and "1/2 " not in out
+    assert max(len(line) for line in out.splitlines()) <= 80
+
+
 def test_two_ended_json(cli, cli_json):
     # power-cable fault-location practice (common practice): 250 m x 1.2 / 2.0 = 150 m from A;
     # implied VF = 2 x 250 m / (c0 x 2 us) = 0.833910 (SI c0)

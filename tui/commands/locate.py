@@ -180,9 +180,11 @@ def describe_run(segments, units: str = "metric", fraction: int = 16) -> list[st
                      f"{s.cable.id:<20} VF {fmt.vf(s.cable.vf)} +/- "
                      f"{fmt.percent(s.cable.vf_tolerance)}")
     lines.append("expected reflections (round trip from the instrument):")
-    lines.append(f"  {'between':<9} {'distance':>17}  {'round trip':>10}  range")
+    lines.append(f"  {'joint of':<9} {'distance':>17}  {'round trip':>10}  range")
     for j in junctions:
-        label = "far end" if j.is_far_end else f"{j.after_segment_index + 1}/{j.after_segment_index + 2}"
+        # "1 and 2", not "1/2", which a cable person reads as one half
+        label = ("far end" if j.is_far_end
+                 else f"{j.after_segment_index + 1} and {j.after_segment_index + 2}")
         lines.append(f"  {label:<9} {fmt.length(j.distance_m, units, fraction):>17}  "
                      f"{fmt.time(j.round_trip_delay_s):>10}  {fmt.time(j.round_trip_delay_low_s)}"
                      f" to {fmt.time(j.round_trip_delay_high_s)}")
