@@ -57,6 +57,17 @@ def _preferences() -> dict:
     return {"units": prefs.units, "fraction": prefs.fraction}
 
 
+def option(args, flag: str, kind: str, default=None):
+    """The option ``flag`` (``"--rise-time"``, read from ``args.rise_time``) parsed as
+    ``kind`` by :func:`calc.parse.parse`, or ``default`` when it was not given."""
+    text = getattr(args, flag.lstrip("-").replace("-", "_"))
+    if text is None:
+        return default
+    from calc.parse import parse
+
+    return parse(text, flag, kind)
+
+
 _last: dict = {}
 
 

@@ -8,6 +8,7 @@ from tui.commands.common import (
     add_velocity_options,
     electrical_length_deg,
     emit,
+    option,
     resolve_velocity,
     units_of,
     warn_hazards,
@@ -50,11 +51,10 @@ def run(args) -> int:
     units, fraction = units_of(args)
     frequency = parse(args.frequency, "--frequency", "frequency")
     deg = electrical_length_deg(args)
-    piece = None if args.length is None else parse(args.length, "--length", "length")
-    allowance = 0.0 if args.allowance is None else parse(args.allowance, "--allowance",
-                                                          "length_or_zero")
-    span = None if args.span is None else parse(args.span, "--span", "length")
-    slack = 0.0 if args.slack is None else parse(args.slack, "--slack", "length_or_zero")
+    piece = option(args, "--length", "length")
+    allowance = option(args, "--allowance", "length_or_zero", 0.0)
+    span = option(args, "--span", "length")
+    slack = option(args, "--slack", "length_or_zero", 0.0)
     if span is not None and args.kind is None:
         raise InputError("--kind", "say what the line across --span is: transformer, repeater "
                          "or delay", "transformer")

@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from tui.commands.common import add_output_options, cable, emit, units_of, warn_hazards
+from tui.commands.common import add_output_options, cable, emit, option, units_of, warn_hazards
 from tui.commands.match import (
     add_band_options,
     band_of,
@@ -64,15 +64,14 @@ def run(args) -> int:
     zf = parse(args.feed_z, "--feed-z", "impedance")
     frequency = parse(args.frequency, "--frequency", "frequency")
     band = band_of(args)
-    span = None if args.span is None else parse(args.span, "--span", "length")
+    span = option(args, "--span", "length")
     if span is not None:
         reach_m = (args.antennas - 1) * span / 2.0
     else:
-        reach_m = 0.0 if args.arm_reach is None else parse(args.arm_reach, "--arm-reach", "length")
-    slack = 0.0 if args.slack is None else parse(args.slack, "--slack", "length_or_zero")
-    allowance = 0.0 if args.allowance is None else parse(args.allowance, "--allowance",
-                                                          "length_or_zero")
-    tolerance = parse(args.cut_tolerance, "--cut-tolerance", "length_or_zero")
+        reach_m = option(args, "--arm-reach", "length", 0.0)
+    slack = option(args, "--slack", "length_or_zero", 0.0)
+    allowance = option(args, "--allowance", "length_or_zero", 0.0)
+    tolerance = option(args, "--cut-tolerance", "length_or_zero")
     if args.transformer_cable and args.topology != "half":
         raise InputError("--transformer-cable", "only --topology half has a transformer after "
                          "the junction", "rg58")

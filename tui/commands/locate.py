@@ -16,6 +16,7 @@ from tui.commands.common import (
     add_output_options,
     add_velocity_options,
     emit,
+    option,
     resolve_velocity,
     units_of,
 )
@@ -80,6 +81,11 @@ def _instrument_lines(limits, units: str, fraction: int) -> list[str]:
     return lines
 
 
+def _instrument(args) -> tuple[float | None, float | None]:
+    """``--rise-time`` and ``--pulse-width`` in seconds (None when not given)."""
+    return option(args, "--rise-time", "time"), option(args, "--pulse-width", "time")
+
+
 def _instrument_data(limits) -> dict:
     data = {}
     if limits.resolution_m is not None:
@@ -125,10 +131,8 @@ def describe_expected(pred, source: str, units: str = "metric", fraction: int = 
 def _one_cable(args, delay_s, distance_m, units, fraction) -> int:
     from calc import locate as core
     from calc.errors import InputError
-    from calc.parse import parse
 
-    rise = parse(args.rise_time, "--rise-time", "time") if args.rise_time is not None else None
-    width = parse(args.pulse_width, "--pulse-width", "time") if args.pulse_width is not None else None
+    rise, width = _instrument(args)
     resolved = resolve_velocity(args, args.tolerance)
     if resolved is None:
         raise InputError("--cable", "give the cable (or a velocity option, or --run)", "rg58")
@@ -217,17 +221,14 @@ def describe_run_location(loc, segments, units: str = "metric", fraction: int = 
 def _in_run(args, delay_s, distance_m, units, fraction) -> int:
     from calc import locate as core
     from calc.errors import InputError
-    from calc.parse import parse
     from tui.commands.common import VELOCITY_OPTIONS, warn_hazards
 
     for flag, dest, *_ in VELOCITY_OPTIONS:
         if getattr(args, dest, None) is not None:
             raise InputError(flag, "--run takes each segment's cable from the catalog; "
                                    f"leave out {flag}", "--run '2 m:rg58, 45 m:rg213'")
-    tolerance = (parse(args.tolerance, "--tolerance", "tolerance")
-                 if args.tolerance is not None else None)
-    rise = parse(args.rise_time, "--rise-time", "time") if args.rise_time is not None else None
-    width = parse(args.pulse_width, "--pulse-width", "time") if args.pulse_width is not None else None
+    tolerance = option(args, "--tolerance", "tolerance")
+    rise, width = _instrument(args)
     segments = parse_run_segments(args.run, tolerance)
     seg_data = [{"length_m": s.length_m, "cable_id": s.cable.id, "vf": s.cable.vf,
                  "vf_tolerance": s.cable.vf_tolerance} for s in segments]
@@ -327,8 +328,7 @@ def run(args) -> int:
         raise InputError("DELAY", "give the round-trip delay, or --distance for the reverse "
                                   "(one of the two)", "245 ns")
     delay_s = parse(args.delay, "DELAY", "time") if args.delay is not None else None
-    distance_m = (parse(args.distance, "--distance", "length")
-                  if args.distance is not None else None)
+    distance_m = option(args, "--distance", "length")
     if args.run is not None:
         return _in_run(args, delay_s, distance_m, units, fraction)
     return _one_cable(args, delay_s, distance_m, units, fraction)
