@@ -149,7 +149,7 @@ def _save(args, cal) -> str:
     try:
         append_user_cable(path, entry)
     except CatalogWriteError as exc:
-        raise InputError("--save-as", str(exc)) from None
+        raise InputError("--save-as", str(exc), "roof-feeder") from None
     except OSError as exc:
         raise InputError("--save-as", f"cannot write {path} ({exc.strerror or exc}); "
                                       "nothing was written") from None
