@@ -109,6 +109,14 @@ def test_two_ended_json(cli, cli_json):
     assert data["implied_vf"] == pytest.approx(0.833910, rel=1e-6)
 
 
+def test_two_ended_says_what_the_length_error_does(cli):
+    # x_A = L t_A / (t_A + t_B) (power-cable fault-location practice, common practice)
+    # scales with L: 850 m x 6.2 / 10.05 = 524.378 m from A, so 1 % of L is 5.244 m there
+    code, out, _ = cli("locate", "--from-a", "6.2 us", "--from-b", "3.85 us", "--length", "850 m")
+    assert code == 0
+    assert "524.378 m" in out and "each distance is 1 % off (5.244 m from A)" in out
+
+
 def test_two_ended_warns_when_the_catalog_disagrees(cli):
     code, out, _ = cli("locate", "--from-a", "1.2 us", "--from-b", "0.8 us", "--length",
                        "250 m", "--cable", "mv-xlpe")

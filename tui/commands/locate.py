@@ -269,6 +269,10 @@ def describe_two_ended(loc, cable_id: str | None, units: str = "metric",
         _row("delay from end B", fmt.time(loc.delay_from_b_s)),
         _row("distance from A", fmt.length(loc.distance_from_a_m, units, fraction)),
         _row("distance from B", fmt.length(loc.distance_from_b_m, units, fraction)),
+        # x_A = L t_A / (t_A + t_B) scales with L: the length's error is the position's
+        _row("if L is 1 % off", "each distance is 1 % off ("
+                                f"{fmt.length(loc.distance_from_a_m / 100.0, units, fraction)} "
+                                "from A)"),
         _row("implied VF", f"{fmt.vf(loc.implied_vf, 4)}  (from the two readings and the length)"),
     ]
     if loc.catalog_vf is None:
