@@ -154,7 +154,12 @@ def _cable(entry: object, where: str, origin: str, report: _Report) -> Cable | N
 def _read_toml(path: Path, report: _Report) -> dict | None:
     try:
         with path.open("rb") as fh:
-            return tomllib.load(fh)
+            raw = fh.read()
+        if not raw.strip():  # a file cut to nothing (a crashed editor, a full disk)
+            report.add(str(path), "the file is empty, so no cables were read from it; "
+                                  "file left as it is")
+            return None
+        return tomllib.loads(raw.decode("utf-8"))
     except FileNotFoundError:
         return None
     except tomllib.TOMLDecodeError as exc:
@@ -166,6 +171,9 @@ def _read_toml(path: Path, report: _Report) -> dict | None:
 
 def _cables_from(data: dict, path: Path, origin: str, report: _Report,
                  into: dict[str, Cable]) -> None:
+    for key in sorted(set(data) - {"cable"}):  # a newer halftrip's addition, or a typo
+        report.add(str(path), f"unknown top-level key {key!r} (only [[cable]] tables are "
+                              "read); ignored and kept in the file")
     entries = data.get("cable", [])
     if not isinstance(entries, list):
         report.add(str(path), "'cable' must be an array of tables ([[cable]])")
@@ -268,8 +276,12 @@ def append_user_cable(user_file: Path, entry: dict) -> Cable:
         existing = ("# halftrip: your own cables. Same format as the shipped catalog "
                     "(see cable_catalog/coax.toml in the program).\n")
     text = existing.rstrip("\n") + "\n\n" + cable_table(entry)
-    user_file.parent.mkdir(parents=True, exist_ok=True)
-    atomic_write_text(user_file, text)
+    try:
+        user_file.parent.mkdir(parents=True, exist_ok=True)
+        atomic_write_text(user_file, text)
+    except OSError as exc:  # read-only or full disk: the old file is still there, whole
+        raise CatalogWriteError(f"cannot write {user_file} ({exc.strerror or exc}); "
+                                "nothing was written") from None
     return new
 
 

@@ -150,5 +150,5 @@ def causal_propagation_constant(
     """
     f = np.asarray(frequency_hz, dtype=float)
     basis = causal_basis(2j * math.pi * np.abs(f))
-    g = np.tensordot(np.array(causal_line_coefficients(vf, k1, k2)), basis, axes=1)
+    g = sum(a * b for a, b in zip(causal_line_coefficients(vf, k1, k2), basis, strict=True))
     return np.where(f < 0, np.conj(g), g)

@@ -251,10 +251,27 @@ def parse_load(text: str, field: str = "--load",
         if not term:
             raise InputError(field, f"cannot read {text.strip()!r}: an empty term", LOAD_EXAMPLE)
         kind = component_kind(term)
-        v = parse(term, field, kind)
+        v = check_component(kind, parse(term, field, kind), field)
         values[kind] = _combine(topology, kind, values.get(kind), v)
     return Load._combination(topology, values.get("resistance"), values.get("inductance"),
                              values.get("capacitance"))
+
+
+#: What a component can be and still describe a cable fault or termination (SI units);
+#: beyond these the step signatures would sit far outside any trace.
+COMPONENT_RANGE = {"resistance": (0.0, 1e9, "0 ohm", "1 Gohm"),
+                   "capacitance": (1e-18, 1.0, "1 aF", "1 F"),
+                   "inductance": (1e-15, 1e3, "1 fH", "1 kH")}
+
+
+def check_component(kind: str, value: float, field: str) -> float:
+    """``value`` if it is a sensible resistance, capacitance or inductance, else InputError."""
+    lo, hi, lo_text, hi_text = COMPONENT_RANGE[kind]
+    if not (math.isfinite(value) and lo <= value <= hi):
+        raise InputError(field, f"the {kind} must be from {lo_text} to {hi_text}",
+                         {"resistance": "75 ohm", "capacitance": "10 pF",
+                          "inductance": "100 nH"}[kind])
+    return value
 
 
 def component_kind(term: str) -> str:

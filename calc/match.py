@@ -262,6 +262,9 @@ def phase_spread(arm: Section, frequency_hz: float, band_hz: np.ndarray,
     arm cable's catalog tolerance)."""
     if not (math.isfinite(cut_tolerance_m) and cut_tolerance_m >= 0.0):
         raise InputError("cut tolerance", f"{cut_tolerance_m:g} m must be zero or more", "2 mm")
+    if cut_tolerance_m > arm.physical_length_m:
+        raise InputError("cut tolerance", f"{cut_tolerance_m:g} m is more than a whole arm "
+                         f"({arm.physical_length_m:.3g} m)", "2 mm")
     t = check_tolerance(arm.cable.vf_tolerance if vf_tolerance is None else vf_tolerance,
                         "VF tolerance")
     f = np.array([float(np.min(band_hz)), frequency_hz, float(np.max(band_hz))])

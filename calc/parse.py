@@ -30,6 +30,7 @@ from __future__ import annotations
 import math
 import re
 import threading
+import warnings
 from dataclasses import dataclass
 from functools import lru_cache
 
@@ -238,7 +239,9 @@ def _with_pint(t: str, field: str, k: Kind) -> float:
     if q.dimensionality != target.dimensionality:
         raise _fail(field, k, f"{t!r} is not a {k.noun}")
     try:
-        value = float(q.to(k.si_unit).magnitude)
+        with warnings.catch_warnings():  # an overflow (say "1e300 dB") is refused below, quietly
+            warnings.simplefilter("ignore", RuntimeWarning)
+            value = float(q.to(k.si_unit).magnitude)
     except Exception as exc:
         raise _fail(field, k, f"cannot convert {t!r} ({_pint_reason(exc)})") from None
     return value

@@ -51,7 +51,7 @@ import numpy as np
 from calc.cable import causal_basis, causal_line_coefficients
 from calc.constants import C0_M_PER_S
 from calc.errors import InputError
-from calc.loads import Load, component_kind, reflection_polynomials
+from calc.loads import Load, check_component, component_kind, reflection_polynomials
 from calc.parse import parse
 
 #: Largest number of output samples (time, distance and level arrays).
@@ -67,9 +67,9 @@ MAX_AUTO_POINTS = 1 << 18
 MAX_FFT = 1 << 21
 #: Arrivals smaller than this (fraction of the incident step) are not listed.
 ARRIVAL_CUTOFF = 1e-3
-MAX_ARRIVALS = 100
+MAX_ARRIVALS = 64
 #: Bounce branches followed at most when listing arrivals (largest first).
-MAX_EXPANSIONS = 1000
+MAX_EXPANSIONS = 250
 #: Damping of the transform: exp(-c T) = 1e-6, so whatever lies beyond one
 #: period (re-reflections, a skin-effect creep, a slow capacitor) folds back
 #: into it at most a millionth of its size.
@@ -190,18 +190,22 @@ def parse_lump(text: str, n_segments: int, field: str = "--lump") -> Lump:
         raise InputError(field, f"{where!r} is not a segment of this run (1 to {n_segments})",
                          LUMP_EXAMPLE)
     kind = component_kind(value)
-    return Lump(_LUMP_KIND[kind], parse(value, field, kind), int(where) - 1)
+    return Lump(_LUMP_KIND[kind], check_component(kind, parse(value, field, kind), field),
+                int(where) - 1)
 
 
 # -- rational two-port pieces ---------------------------------------------
-def _pm(a, b):
-    return np.polymul(a, b)
+def _pm(a, b) -> np.ndarray:
+    """Product of two polynomials (coefficients, highest power first)."""
+    return np.convolve(np.atleast_1d(a), np.atleast_1d(b))
 
 
-def _pa(*ps):
-    out = np.array([0.0])
+def _pa(*ps) -> np.ndarray:
+    """Sum of polynomials (coefficients, highest power first)."""
+    ps = [np.atleast_1d(np.asarray(p, dtype=float)) for p in ps]
+    out = np.zeros(max(len(p) for p in ps))
     for p in ps:
-        out = np.polyadd(out, p)
+        out[len(out) - len(p):] += p
     return out
 
 
@@ -223,6 +227,25 @@ def _abcd_chain(lumps: Sequence[Lump]) -> tuple:
     return a, b, c, d
 
 
+def _lead_trimmed(p) -> np.ndarray:
+    """Polynomial coefficients (highest first) without leading zeros."""
+    p = np.atleast_1d(np.asarray(p, dtype=float))
+    nonzero = np.flatnonzero(p)
+    return p[nonzero[0]:] if nonzero.size else p[:0]
+
+
+def _roots(monic: np.ndarray) -> np.ndarray:
+    """Roots of a monic polynomial: closed form to degree 2, numpy beyond."""
+    if len(monic) == 2:
+        return np.array([-monic[1] + 0j])
+    if len(monic) == 3:
+        b, c = monic[1], monic[2]
+        d = np.sqrt(complex(b * b - 4.0 * c))
+        q = -0.5 * (b + (d if b.real >= 0 else -d))  # the stable form of the quadratic formula
+        return np.array([q, c / q]) if q != 0 else np.array([0j, -b + 0j])
+    return np.roots(monic).astype(complex)
+
+
 class _Rational:
     """F(s) = P(s)/Q(s) with its DC value, poles and step-response estimates."""
 
@@ -237,8 +260,7 @@ class _Rational:
         return f
 
     def __init__(self, num, den):
-        num = np.trim_zeros(np.atleast_1d(np.asarray(num, dtype=float)), "f")
-        den = np.trim_zeros(np.atleast_1d(np.asarray(den, dtype=float)), "f")
+        num, den = _lead_trimmed(num), _lead_trimmed(den)
         self.num = num if num.size else np.array([0.0])
         self.den = den
         scale = self.den[0]
@@ -251,10 +273,10 @@ class _Rational:
             return
         if len(self.num) == len(self.den):
             self.high = float(self.num[0])
-            rem = np.polysub(self.num, self.high * self.den)
+            rem = _pa(self.num, -self.high * self.den)
         else:
             self.high, rem = 0.0, self.num
-        poles = np.roots(self.den)
+        poles = _roots(self.den)
         # nudge repeated poles apart so simple-pole residues stay finite
         for i in range(len(poles)):
             for j in range(i):
@@ -479,8 +501,14 @@ def _check(segments, load, lumps, source_z_ohm, rise_time_s, pulse_width_s, n_po
                              "1:2 nH")
         if not math.isfinite(lp.value) or lp.value < 0 or (lp.value == 0 and lp.kind != "series_r"):
             raise InputError("--lump", "a lumped value must be positive", "1:2 nH")
+        check_component({"series_r": "resistance", "series_l": "inductance",
+                         "shunt_c": "capacitance"}[lp.kind], lp.value, "--lump")
     if not isinstance(load, Load):
         raise InputError("--load", "not a load", "75 ohm")
+    for kind, value in (("resistance", load.resistance_ohm), ("inductance", load.inductance_h),
+                        ("capacitance", load.capacitance_f)):
+        if value is not None:
+            check_component(kind, value, "--load")
     if not load.has_step_response:
         raise InputError("--load", "an impedance known at one frequency has no trace; give it "
                          "as R + L or R || C", "50 ohm + 20 nH")
@@ -530,7 +558,13 @@ def _groups(segments, junctions) -> list[tuple[np.ndarray, object]]:
 def _cascade(grid: _Grid, segments, junctions, load_factor: _Rational, source_z: float):
     """Gamma seen by the instrument, referenced to its source impedance."""
     groups = _groups(segments, junctions)
-    factors = np.exp(-(np.array([g[0] for g in groups]) @ grid.basis))  # exp(-2 gamma l)
+    terms = np.array([g[0] for g in groups])
+    # exp(-2 gamma l) for every group. Two real products, not one complex one: numpy's
+    # complex matmul (BLAS zgemm) can leave the CPU slow at every complex exp after it
+    exponent = np.empty((len(groups), grid.s.size), dtype=complex)
+    exponent.real = -(terms @ grid.basis.real)
+    exponent.imag = -(terms @ grid.basis.imag)
+    factors = np.exp(exponent)
     gamma = load_factor(grid.s)
     for (_, j), factor in zip(groups, factors, strict=True):
         gamma = factor * gamma
@@ -782,7 +816,7 @@ def _lossy_steps(loss_terms: list, times_s: Sequence[float], rise_s: float) -> n
     sigma = rise_s / RISE_PER_SIGMA
     f_max = 1.5 / sigma
     times = np.asarray(times_s, dtype=float)
-    nq = int(min(8192, max(256, 8.0 * math.pi * f_max * times.max())))
+    nq = int(min(8192, max(128, 4.0 * math.pi * f_max * times.max())))  # good to ~1e-4
     u = np.linspace(0.0, math.sqrt(f_max), nq + 1)
     f = u * u
     basis = causal_basis(2j * math.pi * f)
@@ -852,6 +886,7 @@ def simulate(
     pulse_width_s: float | None = None,
     n_points: int | None = None,
     span_s: float | None = None,
+    arrivals: bool = True,
 ) -> Prediction:
     """Predict the trace of a reflectometer at the near end of ``segments``.
 
@@ -867,6 +902,8 @@ def simulate(
     ``level`` is the reflected voltage as a fraction of the incident step
     (rho): 0 before any reflection, +1 after an open's, -1 after a short's.
     Time 0 is the instrument's port; a short pre-trigger stretch comes first.
+    With ``arrivals=False`` the list of bounce paths is left empty (a caller
+    that redraws the trace on every keystroke can list them less often).
     """
     segments = tuple(segments)
     lumps = tuple(lumps)
@@ -931,13 +968,15 @@ def simulate(
         level -= dc * fold / (1.0 - fold)
     time = np.arange(n) * dt - t_pre
 
-    bounces = _expand(segments, junctions, load_factor, zs, tr, horizon_s=span)
-    if bounces.truncated:
-        warnings.append("arrivals-truncated")
-    arrivals = tuple(a for a in _finish_arrivals(bounces, segments, junctions, settle, tr,
-                                                  bool(pulse)) if a.time_s <= span)
+    listed: tuple[Arrival, ...] = ()
+    if arrivals:
+        bounces = _expand(segments, junctions, load_factor, zs, tr, horizon_s=span)
+        if bounces.truncated:
+            warnings.append("arrivals-truncated")
+        listed = tuple(a for a in _finish_arrivals(bounces, segments, junctions, settle, tr,
+                                                    bool(pulse)) if a.time_s <= span)
     return Prediction(
         time_s=time, distance_m=distance_from_round_trip(time, segments), level=level,
-        arrivals=arrivals, rise_time_s=tr, pulse_width_s=pulse_width_s, source_z_ohm=zs,
+        arrivals=listed, rise_time_s=tr, pulse_width_s=pulse_width_s, source_z_ohm=zs,
         round_trip_s=round_trip, span_s=span, frequency_step_hz=1.0 / period, n_fft=n_fft,
         warnings=tuple(dict.fromkeys(warnings)))

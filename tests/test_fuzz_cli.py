@@ -4,9 +4,9 @@ and with --json exactly one JSON object on stdout) or the tool's own one-line
 error (exit 2, nothing on stdout). Exit 1 (an internal fault) or an escaping
 exception fails the test.
 
-Examples per command: 1,000 in CI (profile "ci", chosen when CI is set, as
-.ci/run's environment has it), 100 on a developer's run (profile "dev"); set
-HALFTRIP_FUZZ_PROFILE=long for 10,000.
+Examples per command: 1,000 in CI, 100 on a developer's run, 10,000 with
+HALFTRIP_FUZZ_PROFILE=long (profiles and values in tests/fuzzing.py, shared
+with the terminal interface's fuzz in tests/ui/test_fuzz_tui.py).
 """
 
 from __future__ import annotations
@@ -14,23 +14,17 @@ from __future__ import annotations
 import argparse
 import io
 import json
-import os
+import warnings
 from contextlib import redirect_stderr, redirect_stdout
 from pathlib import Path
 
 import pytest
-from hypothesis import HealthCheck, given, settings
+from fuzzing import VALUES as FUZZ_VALUES
+from fuzzing import profile
+from hypothesis import given, settings
 from hypothesis import strategies as st
 
 from tui.cli import build_parser, main
-
-settings.register_profile("ci", max_examples=1000, deadline=None,
-                          suppress_health_check=[HealthCheck.too_slow])
-settings.register_profile("dev", max_examples=100, deadline=None,
-                          suppress_health_check=[HealthCheck.too_slow])
-settings.register_profile("long", max_examples=10_000, deadline=None,
-                          suppress_health_check=[HealthCheck.too_slow])
-PROFILE = os.environ.get("HALFTRIP_FUZZ_PROFILE", "ci" if os.environ.get("CI") else "dev")
 
 # A valid invocation of every command: the fuzzer replaces one value in it.
 BASELINES: dict[str, list[str]] = {
@@ -70,21 +64,6 @@ BASELINES: dict[str, list[str]] = {
 # Options never fuzzed: they name files to write or read, or a job database.
 NOT_FUZZED = {"--out", "--db", "--help", "-h", "--save", "--job", "--label", "--note"}
 
-NUMBERS = st.sampled_from(["0", "-1", "-0", "1e300", "-1e300", "1e-300", "nan", "NaN", "inf",
-                           "-inf", "1e309", "0.0000001", "999999999999", "1/0", "0x10"])
-UNITS = st.sampled_from(["", " ns", " m", " ft", " in", " MHz", " ohm", " %", " pF", " nH",
-                         " kg", " degC", " wl", " deg", " s", " V", " m/us", " ns/ft", " Ω",
-                         " µs", " furlong", " dB", " j", "j ohm"])
-ODD = st.sampled_from(["", " ", "\u200b", "\u202e1 m", "１２ ns", "٣ m", "ⅷ", "🙂", "\x00",
-                       "--vf", "-", ":", ",", "1 m:", ":rg58", "1 m:rg58,,", "'", '"', "\\",
-                       "1 ft 2 ft", "3-1/0 in", "((1))", "1 m + 2 m", "2**1000 m"])
-FUZZ_VALUES = st.one_of(
-    st.text(max_size=30),
-    st.builds(lambda n, u: n + u, NUMBERS, UNITS),
-    ODD,
-    st.builds(lambda a, b: a + b, st.text(max_size=8), UNITS),
-)
-
 
 def _subparser(parser: argparse.ArgumentParser, words: list[str]) -> argparse.ArgumentParser:
     """The (nested) subparser that handles ``words``."""
@@ -116,7 +95,9 @@ def _present(name: str) -> bool:
 
 def _run(argv: list[str]) -> tuple[int, str, str]:
     out, err = io.StringIO(), io.StringIO()
-    with redirect_stdout(out), redirect_stderr(err):
+    # a numeric warning (overflow, invalid value) would be a second line on stderr: a fault
+    with redirect_stdout(out), redirect_stderr(err), warnings.catch_warnings():
+        warnings.simplefilter("error", RuntimeWarning)
         try:
             code = main(argv)
         except SystemExit as exc:  # argparse usage errors
@@ -130,7 +111,7 @@ def _check(argv: list[str]) -> None:
     if code == 2:
         assert out == "", f"stdout on refusal for {argv!r}"
         refusals = [ln for ln in err.splitlines() if not ln.startswith("halftrip: caution")
-                    and not ln.startswith("halftrip: catalog")]
+                    and not ln.startswith(("halftrip: catalog", "halftrip: preferences"))]
         assert len(refusals) == 1, f"not one line for {argv!r}: {err!r}"
     elif "--json" in argv:
         assert isinstance(json.loads(out), dict)
@@ -153,7 +134,7 @@ def test_fuzzed_options(name):
     words = [w for w in base[:2] if not w.startswith("-")]
     options = _value_options(_subparser(build_parser(), words))
 
-    @settings(settings.get_profile(PROFILE))
+    @settings(profile())
     @given(st.sampled_from(options), FUZZ_VALUES, st.booleans())
     def fuzz(option, value, as_json):
         argv = list(base)
@@ -167,3 +148,21 @@ def test_fuzzed_options(name):
         _check(argv)
 
     fuzz()
+
+
+# Defects the fuzz found, kept as plain regression cases (each was exit 1 before its fix).
+FOUND = [
+    # int * float overflow computing the arm reach from --span before the count was checked
+    ["harness", "--antennas", "1" * 400, "--antenna-z", "50 ohm", "--feed-z", "50 ohm",
+     "--frequency", "146 MHz", "--span", "2 m"],
+    # a cut tolerance longer than any arm overflowed to an infinite phase spread
+    ["harness", "--antennas", "4", "--antenna-z", "50 ohm", "--feed-z", "50 ohm",
+     "--frequency", "146 MHz", "--cut-tolerance", "1e300 m"],
+]
+
+
+@pytest.mark.parametrize("argv", FOUND, ids=lambda a: " ".join(a)[:40])
+def test_found_by_fuzzing_is_refused_in_one_line(argv):
+    code, out, err = _run(argv)
+    assert code == 2 and out == "" and len(err.strip().splitlines()) == 1, err
+    _check(argv + ["--json"])

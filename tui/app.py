@@ -24,7 +24,8 @@ from textual.widgets import ContentSwitcher, Footer
 
 from tui.panels import PanelSpec, discover
 from tui.prefs import Preferences, changed, load_preferences, update_preferences, with_section
-from tui.widgets.panel_bar import PanelBar
+from tui.widgets.key_bar import KeyBar
+from tui.widgets.panel_bar import PanelBar, TopBar
 
 #: Keys of the app itself (panel keys are added from the panel modules).
 APP_BINDINGS = [
@@ -79,22 +80,21 @@ class HalftripApp(App[int]):
 
     # ----------------------------------------------------------------- layout
     def compose(self) -> ComposeResult:
-        yield PanelBar(self.PANELS, self.unit_system)
-        with ContentSwitcher(initial=self._start_panel, id="panels"):
-            for spec in self.PANELS:
-                if spec.name == self._start_panel:
-                    yield spec.module.Panel(id=spec.name)
-        yield Footer()
+        yield TopBar(self.PANELS, self.unit_system)
+        # Panels are mounted when first opened, the first one right after the
+        # first frame (see on_ready), and so is the footer (~15 ms): the first
+        # frame is only this shell.
+        yield ContentSwitcher(id="panels")
 
-    def on_mount(self) -> None:
-        if self.demo and self.PANELS:
-            first = self.query_one(f"#{self._start_panel}")
-            self._fill_demo(next(s for s in self.PANELS if s.name == self._start_panel), first)
+    async def on_ready(self) -> None:
+        """The first frame is on screen (Textual's Ready event): open the first
+        panel, then load the core and run the panels' start hooks."""
+        await self.mount(Footer())
+        if self._start_panel:
+            await self.action_open_panel(self._start_panel)
         self.call_after_refresh(self._after_first_frame)
 
     def _after_first_frame(self) -> None:
-        if self._start_panel:
-            self.focus_first_field(self.query_one(f"#{self._start_panel}"))
         for problem in self.prefs.problems:
             self.notify(problem, title="Preferences", severity="warning", timeout=10)
         self._load_core()
@@ -124,9 +124,11 @@ class HalftripApp(App[int]):
     def reload_catalog(self) -> None:
         """Read the catalog again (after the user's cable file changed)."""
         from cable_catalog.loader import load_catalog
+        from tui.commands.common import catalog as cli_catalog
         from tui.paths import user_catalog_path
 
         self.catalog = load_catalog(user_catalog_path())
+        cli_catalog.cache_clear()  # the panels that run CLI commands read this one
         self.mutate_reactive(HalftripApp.core_ready)
 
     # ----------------------------------------------------------------- panels
@@ -140,8 +142,6 @@ class HalftripApp(App[int]):
         spec = next(s for s in self.PANELS if s.name == name)
         widget = spec.module.Panel(id=name)
         await switcher.mount(widget)
-        if self.demo:
-            self._fill_demo(spec, widget)
         return widget
 
     @property
@@ -153,6 +153,8 @@ class HalftripApp(App[int]):
         if name not in {s.name for s in self.PANELS}:
             return
         widget = await self.panel(name)
+        if not self.is_running:  # closed while the panel was being mounted
+            return
         self.query_one("#panels", ContentSwitcher).current = name
         self.query_one(PanelBar).current = name
         self.call_after_refresh(self.focus_first_field, widget)
@@ -166,16 +168,19 @@ class HalftripApp(App[int]):
         if first is not None:
             first.focus()
 
-    def _fill_demo(self, spec: PanelSpec, widget) -> None:
-        """Type the panel's demo values (module attribute ``DEMO``: input id -> text)."""
-        from textual.widgets import Input
+    def initial_text(self, field_name: str, default: str) -> str:
+        """What a field starts with: in the demo, the panel's ``DEMO`` text for it."""
+        if not self.demo:
+            return default
+        for spec in self.PANELS:
+            demo = getattr(spec.module, "DEMO", {})
+            if field_name in demo:
+                return demo[field_name]
+        return default
 
-        for input_id, text in getattr(spec.module, "DEMO", {}).items():
-            for field in widget.query(f"#{input_id}").results(Input):
-                field.value = text
-
-    def on_panel_bar_selected(self, message: PanelBar.Selected) -> None:
-        self.run_action(f"open_panel('{message.name}')")
+    def on_key_bar_selected(self, message: KeyBar.Selected) -> None:
+        if isinstance(message.bar, PanelBar):
+            self.run_action(f"open_panel('{message.name}')")
 
     def action_mark_possibly_live(self) -> None:
         """``!``: mark (or unmark) the current panel's line as possibly live."""
@@ -224,7 +229,7 @@ class HalftripApp(App[int]):
         self.notify(f"Lengths now in {label}", timeout=2)
 
     def watch_unit_system(self, value: tuple[str, int]) -> None:
-        self.query_one(PanelBar).units = value
+        self.query_one(TopBar).units = value
 
     def action_switch_theme(self) -> None:
         self.theme = "textual-light" if self.current_theme.dark else "textual-dark"
@@ -248,19 +253,17 @@ class HalftripApp(App[int]):
             self.push_screen(HelpScreen(key_table(self)))
 
     def action_back_out(self) -> None:
-        """Escape, one step out each time: from a field to the panel's tabs (if it
-        has them), from there to the panel bar. Dialogs close themselves."""
-        from textual.widgets import Tabs
-
+        """Escape, one step out each time: from a field to the panel's mode bar (if
+        it has modes), from there to the panel bar. Dialogs close themselves."""
         bar = self.query_one(PanelBar)
         focused = self.focused
         panel = self.query_one("#panels", ContentSwitcher).visible_content
         if focused is None or focused is bar or panel is None:
             bar.focus()
             return
-        tabs = next(iter(panel.query(Tabs)), None)
-        if tabs is not None and focused is not tabs and panel in focused.ancestors:
-            tabs.focus()
+        modes = next(iter(panel.query(KeyBar)), None)
+        if modes is not None and focused is not modes and panel in focused.ancestors:
+            modes.focus()
         else:
             bar.focus()
 

@@ -274,9 +274,8 @@ async def test_demo_shows_its_own_job_and_leaves_the_users_log_alone():
 async def test_locate_panel_saves_what_the_cli_saves_and_reopens_cli_entries(capsys):
     """The real Locate panel: Ctrl+S stores the same inputs and result as
     'halftrip locate ... --save'; a run saved from the CLI reopens in the Run tab."""
-    from textual.widgets import TabbedContent
-
     from tui.app import create_app
+    from tui.widgets.modes import Modes
     from tui.cli import main
 
     assert main(["log", "new", "Harbour Road substation"]) == 0
@@ -303,7 +302,7 @@ async def test_locate_panel_saves_what_the_cli_saves_and_reopens_cli_entries(cap
         table.select(2)  # the run saved from the CLI (kind "locate", a run input)
         await pilot.press("o")
         await wait_for(pilot, lambda: app.current_panel == "locate")
-        tabs = app.query_one("#locate-modes", TabbedContent)
-        await wait_for(pilot, lambda: tabs.active == "locate-tab-run")
+        modes = app.query_one("#locate-modes", Modes)
+        await wait_for(pilot, lambda: modes.current == "run")
         assert app.query_one("#locate-run-run", Input).value.startswith("1.5 m:rg58")
         assert app.query_one("#locate-run-delay", Input).value == "131 ns"

@@ -54,6 +54,8 @@ def _preferences() -> dict:
     except ImportError:  # preferences arrive with the terminal interface
         return {}
     prefs = load_preferences()
+    for problem in prefs.problems:
+        print(f"halftrip: preferences: {problem}", file=sys.stderr)
     return {"units": prefs.units, "fraction": prefs.fraction}
 
 

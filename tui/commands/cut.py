@@ -42,7 +42,8 @@ def add_arguments(parser) -> None:
     add_output_options(parser)
 
 
-def run(args) -> int:
+def compute(args):
+    """(data, lines, cables used): what ``run`` prints, also shown by the TUI's panel."""
     from calc import cut
     from calc.errors import InputError
     from calc.parse import parse
@@ -70,9 +71,14 @@ def run(args) -> int:
     plan = cut.plan_cut(frequency, deg, vf, allowance_per_end_m=allowance,
                         vf_tolerance=resolved.tolerance, span_m=span, kind=args.kind,
                         slack_m=slack, denominator=fraction)
-    warn_hazards([resolved.cable])
-    return emit(args, _record(plan, resolved, piece, fraction),
-                _lines(plan, resolved, piece, units, fraction, fmt))
+    return (_record(plan, resolved, piece, fraction),
+            _lines(plan, resolved, piece, units, fraction, fmt), [resolved.cable])
+
+
+def run(args) -> int:
+    data, lines, cables = compute(args)
+    warn_hazards(cables)
+    return emit(args, data, lines)
 
 
 def _record(plan, resolved, piece, fraction) -> dict:

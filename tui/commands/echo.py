@@ -54,6 +54,11 @@ def add_arguments(parser) -> None:
 
 
 def run(args) -> int:
+    return emit(args, *report(args))
+
+
+def report(args) -> tuple[dict, list[str]]:
+    """(JSON data, text lines) for these options (the TUI's Echo panel shows the same)."""
     from calc.parse import parse
 
     z0 = parse(args.z0, "--z0", "impedance")
@@ -63,7 +68,7 @@ def run(args) -> int:
 
 
 # -- forward ------------------------------------------------------------------
-def _forward(args, z0: float) -> int:
+def _forward(args, z0: float) -> tuple[dict, list[str]]:
     from calc.errors import InputError
     from calc.loads import parse_load, seen_through, summarize
     from calc.parse import parse
@@ -88,8 +93,7 @@ def _forward(args, z0: float) -> int:
         if args.vf:
             raise InputError("--vf", "goes with --through LENGTH", "--through '3 m' --vf 0.66")
         summary = summarize(load, z0, f)
-    data, lines = _forward_report(args, summary, through)
-    return emit(args, data, lines)
+    return _forward_report(args, summary, through)
 
 
 def _through_segments(args, z0: float):
@@ -227,7 +231,7 @@ def _level(text: str, field: str, incident: float | None) -> float:
     return parse(text, field, "ratio")
 
 
-def _backwards(args, z0: float) -> int:
+def _backwards(args, z0: float) -> tuple[dict, list[str]]:
     from calc.errors import InputError
     from calc.loads import from_observed_step
     from calc.parse import parse
@@ -274,4 +278,4 @@ def _backwards(args, z0: float) -> int:
                      f"{fmt.impedance(r.shunt_resistance_ohm)})")
     lines += fmt.wrapped("A level alone cannot tell these apart: look at what the trace does "
                          "after the step, and compare with 'halftrip simulate'.", indent=0)
-    return emit(args, data, lines)
+    return data, lines

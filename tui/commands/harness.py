@@ -53,9 +53,10 @@ def add_arguments(parser) -> None:
     add_output_options(parser)
 
 
-def run(args) -> int:
+def compute(args):
+    """(data, lines, cables used): what ``run`` prints, also shown by the TUI's panel."""
     from calc.errors import InputError
-    from calc.match import harness
+    from calc.match import MAX_ANTENNAS, harness
     from calc.parse import parse
     from tui import fmt
 
@@ -65,8 +66,8 @@ def run(args) -> int:
     frequency = parse(args.frequency, "--frequency", "frequency")
     band = band_of(args)
     span = option(args, "--span", "length")
-    if span is not None:
-        reach_m = (args.antennas - 1) * span / 2.0
+    if span is not None:  # the count is clamped only to keep this finite; harness() refuses it
+        reach_m = (min(args.antennas, MAX_ANTENNAS + 1) - 1) * span / 2.0
     else:
         reach_m = option(args, "--arm-reach", "length", 0.0)
     slack = option(args, "--slack", "length_or_zero", 0.0)
@@ -81,9 +82,15 @@ def run(args) -> int:
                 band_hz=band, arm_reach_m=reach_m, slack_m=slack, allowance_per_end_m=allowance,
                 cut_tolerance_m=tolerance, arm_cable=arm_cable, transformer_cable=tr_cable,
                 allow_parallel=not args.single_only, denominator=fraction)
-    warn_hazards([p.section.cable for p in _pieces(h)])
-    return emit(args, _record(h, span, allowance, fraction, fmt),
-                _lines(h, span, allowance, units, fraction, fmt))
+    return (_record(h, span, allowance, fraction, fmt),
+            _lines(h, span, allowance, units, fraction, fmt),
+            [p.section.cable for p in _pieces(h)])
+
+
+def run(args) -> int:
+    data, lines, cables = compute(args)
+    warn_hazards(cables)
+    return emit(args, data, lines)
 
 
 def _line_cable(cable_id, field):

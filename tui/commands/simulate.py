@@ -67,6 +67,13 @@ def _points(text: str | None) -> int | None:
 
 
 def run(args) -> int:
+    segments, prediction = predict(args)
+    return emit(args, _data(args, prediction), _lines(args, segments, prediction))
+
+
+def predict(args):
+    """(run segments, :class:`calc.simulate.Prediction`) for these options (the TUI's
+    Echo panel predicts with the same call)."""
     from calc.loads import parse_load
     from calc.parse import parse
     from calc.run import parse_run
@@ -85,7 +92,7 @@ def run(args) -> int:
         n_points=_points(args.points),
         span_s=parse(args.span, "--span", "time") if args.span else None,
     )
-    return emit(args, _data(args, prediction), _lines(args, segments, prediction))
+    return run_segments, prediction
 
 
 def _data(args, p) -> dict:
@@ -118,7 +125,7 @@ def _lines(args, segments, p) -> list[str]:
             if p.pulse_width_s else f"step, rise time {fmt.time(p.rise_time_s)} (10-90 %)")
     total = sum(s.length_m for s in segments)
     lines = []
-    for line in (f"run        {args.run}  ({len(segments)} segments, {length(total)}, round "
+    for line in (f"run        {args.run}  ({len(segments)} segment{'s' if len(segments) > 1 else ''}, {length(total)}, round "
                  f"trip {fmt.time(p.round_trip_s)})",
                  f"load       {args.load}" + (f"   lumps: {', '.join(args.lump)}"
                                               if args.lump else ""),

@@ -58,7 +58,8 @@ def present_reactance(text: str) -> float:
     return z.imag
 
 
-def run(args) -> int:
+def compute(args):
+    """(data, lines, cables used): what ``run`` prints, also shown by the TUI's panel."""
     import math
 
     from calc import cut
@@ -131,5 +132,10 @@ def run(args) -> int:
         f"every further half wave, {both(s.period_m)}, presents the same",
         "Lossless line assumed: a real stub's loss leaves its short or open imperfect.",
     ]
-    warn_hazards([resolved.cable])
+    return data, lines, [resolved.cable]
+
+
+def run(args) -> int:
+    data, lines, cables = compute(args)
+    warn_hazards(cables)
     return emit(args, data, lines)

@@ -245,7 +245,8 @@ def _analyse_file(args):
                              "(the level in volts needs the incident edge to scale it)")
         info.update(format="delimited", samples=int(got.x.size), axis=got.axis,
                     level_unit=got.level_unit or None)
-    analysis = ev.analyse(np.asarray(time_s), np.asarray(level), z0_ohm=setup.z0,
+    setup.time_s, setup.level = np.asarray(time_s), np.asarray(level)  # the TUI plots them
+    analysis = ev.analyse(setup.time_s, setup.level, z0_ohm=setup.z0,
                           incident_edge=incident, rise_time_s=rise, ringing=ringing)
     if setup.segments is None:
         analysis = ev.place(analysis, vf=setup.vf, vf_tolerance=setup.vf_tolerance,
@@ -278,6 +279,7 @@ def compare_with_expected(args, setup, analysis):
     round_trip = 2.0 * sum(p.delay_s for p in pieces)
     span = analysis.end_delay_s if analysis.end_delay_s >= 1.05 * round_trip else None
     prediction = simulate(pieces, load, rise_time_s=analysis.rise_time_s, span_s=span)
+    setup.prediction = prediction  # the TUI draws it under the recorded trace
     tolerance = setup.tolerance if setup.tolerance is not None else \
         max(s.cable.vf_tolerance for s in segments)
     return ev.compare(analysis, prediction, segments, vf_tolerance=tolerance)

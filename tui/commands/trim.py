@@ -31,7 +31,8 @@ def add_arguments(parser) -> None:
     add_output_options(parser)
 
 
-def run(args) -> int:
+def compute(args):
+    """(data, lines, cables used): what ``run`` prints, also shown by the TUI's panel."""
     from calc import cut
     from calc.parse import parse
     from tui import fmt
@@ -76,4 +77,9 @@ def run(args) -> int:
         f"implied VF {fmt.vf(t.implied_vf, 4)} (from the length and the measurement)",
         "Take off a little less, measure again, then finish (common practice).",
     ]
+    return data, lines, []
+
+
+def run(args) -> int:
+    data, lines, _cables = compute(args)
     return emit(args, data, lines)

@@ -84,6 +84,17 @@ def delay_or_resonance(text: str, label: str) -> tuple[str, float]:
     return ("delay" if kind == "time" else "resonance"), value
 
 
+def angle_or_length(text: str, label: str) -> tuple[str, float]:
+    """``("angle", degrees)`` for an electrical length (``90``, ``0.25 wl``), or
+    ``("length", metres)`` for a piece's physical length (``339 mm``)."""
+    return _first_fitting(text, label, ("angle", "length"), "90 deg, 0.25 wl (or 339 mm)")
+
+
+def text(text: str, label: str) -> str:
+    """The text as typed (for a field the core parses itself)."""
+    return text.strip()
+
+
 def choice(*words: str) -> Callable[[str, str], str]:
     """A reader for one of ``words`` (a unique start is enough: ``s`` for ``short``)."""
 
@@ -116,5 +127,28 @@ def run_reader(catalog: Callable[[], object]) -> Callable[[str, str], tuple]:
         from calc.run import parse_run
 
         return parse_run(text, catalog().get, label)
+
+    return read
+
+
+def load_reader(catalog: Callable[[], object]) -> Callable[[str, str], object]:
+    """A reader for a load, ``open``, ``75 ohm``, ``75 ohm || 10 pF``, ``cable:rg59``
+    (:func:`calc.loads.parse_load`)."""
+
+    def read(text: str, label: str):
+        from calc.loads import parse_load
+
+        return parse_load(text, label, lookup=catalog().get)
+
+    return read
+
+
+def as_text(reader: Callable[[str, str], object]) -> Callable[[str, str], str]:
+    """``reader`` as a check only: the value is the stripped text itself (for a
+    panel that hands the text to the CLI command's own code, checked as typed)."""
+
+    def read(text: str, label: str) -> str:
+        reader(text, label)
+        return text.strip()
 
     return read

@@ -38,6 +38,9 @@ class WarningLine(Static):
         self._show()
 
     def _show(self) -> None:
+        if not self.tags and not self.possibly_live:
+            self.display = False  # no need to read the caution text (start-up)
+            return
         from tui.safety import warning_line
 
         line = warning_line(self.tags, self.possibly_live)

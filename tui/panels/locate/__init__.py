@@ -5,9 +5,9 @@ from __future__ import annotations
 
 from textual.app import ComposeResult
 from textual.binding import Binding
-from textual.containers import Vertical, VerticalScroll
-from textual.widgets import TabbedContent, TabPane
+from textual.containers import Vertical
 
+from tui.widgets.modes import Modes
 from tui.widgets.warning_line import WarningLine
 
 KEY = "l"
@@ -30,35 +30,28 @@ DEMO = {
     "locate-vf-reading": "101.5 ns",
 }
 
-MODES = (
-    ("one", "One cable", "tui.panels.locate.one_cable", "OneCableForm"),
-    ("run", "Run of cables", "tui.panels.locate.run", "RunForm"),
-    ("ends", "Both ends", "tui.panels.locate.both_ends", "BothEndsForm"),
-    ("vf", "Measure VF", "tui.panels.locate.measure", "MeasureForm"),
-)
+
+
+MODES = [
+    ("one", "One cable", "tui.panels.locate.one_cable:OneCableForm"),
+    ("run", "Run of cables", "tui.panels.locate.run:RunForm"),
+    ("ends", "Both ends", "tui.panels.locate.both_ends:BothEndsForm"),
+    ("vf", "Measure VF", "tui.panels.locate.measure:MeasureForm"),
+]
 
 
 class Panel(Vertical):
-    """Four ways to place an event, one tab each."""
+    """Four ways to place an event, one mode each."""
 
-    BINDINGS = [Binding(str(i + 1), f"mode({i})", f"Tab: {title}", id=f"locate.mode.{mode}",
-                        show=False) for i, (mode, title, _m, _c) in enumerate(MODES)]
+    BINDINGS = [Binding(str(i + 1), f"mode({i})", f"Mode: {title}", id=f"locate.mode.{name}",
+                        show=False) for i, (name, title, _f) in enumerate(MODES)]
 
     def __init__(self, id: str | None = None) -> None:
         super().__init__(id=id, classes="panel")
 
     def compose(self) -> ComposeResult:
-        import importlib
-
         yield WarningLine()
-        with TabbedContent(id="locate-modes"):
-            for mode, title, module, cls in MODES:
-                with TabPane(title, id=f"locate-tab-{mode}"), VerticalScroll():
-                    yield getattr(importlib.import_module(module), cls)()
+        yield Modes(MODES, "locate")
 
-    def action_mode(self, index: int) -> None:
-        """Show tab ``index`` (0-based) and put the cursor in its first field."""
-        if 0 <= index < len(MODES):
-            self.query_one(TabbedContent).active = f"locate-tab-{MODES[index][0]}"
-            self.call_after_refresh(self.app.focus_first_field, self)
-
+    async def action_mode(self, index: int) -> None:
+        await self.query_one(Modes).action_mode(index)

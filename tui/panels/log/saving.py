@@ -26,7 +26,6 @@ from __future__ import annotations
 from dataclasses import dataclass
 from functools import partial
 
-from textual.widgets import TabbedContent, TabPane
 
 from tui.panels.log.fields_dialog import Ask, FieldsDialog, required_text
 
@@ -233,14 +232,14 @@ def fill_form(form, inputs: dict) -> list[str]:
     return missing
 
 
-def _show_pane(widget) -> None:
-    """Make the tab that holds ``widget`` the active one."""
+async def _show_pane(widget) -> None:
+    """Show the panel mode (:class:`tui.widgets.modes.Modes`) that holds ``widget``."""
+    from tui.widgets.modes import Modes
+
     for node in widget.ancestors:
-        if isinstance(node, TabPane) and node.id:
-            for owner in node.ancestors:
-                if isinstance(owner, TabbedContent):
-                    owner.active = node.id
-                    break
+        if isinstance(node, Modes):
+            await node.show_containing(widget)
+            return
 
 
 async def reopen(app, entry) -> str:
@@ -254,10 +253,14 @@ async def reopen(app, entry) -> str:
     if hook is not None:
         hook(entry)
         return f"Entry {entry.id} reopened in {spec.title}."
+    from tui.widgets.modes import Modes
+
+    for modes in panel.query(Modes):  # every mode's form, to choose from
+        await modes.mount_modes()
     form = form_for(panel, entry.kind, entry.inputs)
     if form is None:
         return f"{spec.title} has no form for {entry.kind} entries."
-    _show_pane(form)
+    await _show_pane(form)
     missing = fill_form(form, entry.inputs)
     text = f"Entry {entry.id} reopened in {spec.title}."
     if missing:

@@ -1,0 +1,80 @@
+"""Damaged user files for the file-fault tests (imported as a plain module).
+
+Each fault turns a good file into what a person might find after a crash, a
+full disk, a bad copy or a newer halftrip: :func:`damage` applies one and
+returns a :class:`Snapshot` to check later that nothing touched it.
+"""
+
+from __future__ import annotations
+
+import pathlib
+from dataclasses import dataclass
+from pathlib import Path
+
+#: A good user catalog (ends with a string value, so cutting 5 bytes breaks it).
+GOOD_CATALOG = (
+    b"# my cables\n\n[[cable]]\nid = \"roof-feeder\"\ndescription = \"measured feeder\"\n"
+    b"category = \"coax\"\nz0_ohm = 50.0\nvf = 0.83\nvf_tolerance = 0.01\n"
+    b"source = \"measured on the roof\"\n")
+#: Good preferences (ends with a string value too).
+GOOD_PREFS = b"units = \"imperial\"\nfraction = 32\n\n[safety]\nnote = \"kept\"\n"
+
+#: What a newer halftrip might write: keys and fields this version does not know.
+NEWER = {
+    "catalog": b"format = 2\n\n" + GOOD_CATALOG + b"temperature_coefficient = 0.0004\n",
+    "prefs": b"screen_reader = true\n" + GOOD_PREFS + b"\n[plots]\nstyle = \"dots\"\n",
+}
+GOOD = {"catalog": GOOD_CATALOG, "prefs": GOOD_PREFS}
+
+#: Faults after which the file cannot be read at all (so it must never be written over).
+UNREADABLE = ("corrupt", "truncated", "binary", "directory", "no-permission")
+FAULTS = (*UNREADABLE, "empty", "newer")
+
+
+@dataclass(frozen=True)
+class Snapshot:
+    path: Path
+    content: bytes | None  # None: a directory stands where the file should be
+
+    def unchanged(self) -> bool:
+        if self.content is None:
+            return self.path.is_dir() and not any(self.path.iterdir())
+        if not self.path.is_file():
+            return False
+        with open(self.path, "rb") as fh:  # builtin open: refuse_opening patches Path.open
+            return fh.read() == self.content
+
+
+def damage(which: str, fault: str, path: Path, monkeypatch) -> Snapshot:
+    """Put ``which`` ("catalog" or "prefs") at ``path`` with ``fault`` applied."""
+    path.parent.mkdir(parents=True, exist_ok=True)
+    good = GOOD[which]
+    if fault == "directory":  # unreadable: tests run as root, so chmod 000 would not stop us
+        path.mkdir()
+        return Snapshot(path, None)
+    content = {
+        "corrupt": b"this line is not = = TOML\n" + good,
+        "truncated": good[:-5],
+        "binary": b"\xff\xfe\x00\x81 not text at all",
+        "empty": b"",
+        "newer": NEWER[which],
+        "no-permission": good,
+    }[fault]
+    path.write_bytes(content)
+    if fault == "no-permission":
+        refuse_opening(path, monkeypatch)
+    return Snapshot(path, content)
+
+
+def refuse_opening(path: Path, monkeypatch) -> None:
+    """Opening ``path`` fails as a file without read permission would (as root,
+    chmod 000 does not stop a read)."""
+    original = pathlib.Path.open
+    target = Path(path).resolve()
+
+    def guarded(self, *args, **kwargs):
+        if Path(self).resolve() == target:
+            raise PermissionError(13, "Permission denied", str(self))
+        return original(self, *args, **kwargs)
+
+    monkeypatch.setattr(pathlib.Path, "open", guarded)
