@@ -83,6 +83,8 @@ RISE_PER_SIGMA = 2.0 * math.sqrt(2.0) * 0.9061938024368232
 #: far below anything shown.
 MIN_RISE_SAMPLES = 6.0
 LUMP_KINDS = ("series_r", "series_l", "shunt_c")
+#: Source impedances an instrument can have (ohm); beyond them it is a short or an open.
+SOURCE_Z_RANGE = (0.1, 1e4)
 RUN_EXAMPLE = "10 m:rg58, 20 m:rg213"
 
 
@@ -512,6 +514,10 @@ def _check(segments, load, lumps, source_z_ohm, rise_time_s, pulse_width_s, n_po
     if not load.has_step_response:
         raise InputError("--load", "an impedance known at one frequency has no trace; give it "
                          "as R + L or R || C", "50 ohm + 20 nH")
+    if source_z_ohm is not None and math.isfinite(source_z_ohm) and not (
+            SOURCE_Z_RANGE[0] <= source_z_ohm <= SOURCE_Z_RANGE[1]):
+        raise InputError("--source-z", "an instrument's source impedance from 0.1 ohm to "
+                         "10 kohm", "50 ohm")
     for name, v in (("--source-z", source_z_ohm), ("--rise-time", rise_time_s),
                     ("--pulse-width", pulse_width_s), ("--span", span_s)):
         if v is not None and not (math.isfinite(v) and v > 0):

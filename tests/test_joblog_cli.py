@@ -28,8 +28,7 @@ def _run(capsys, *argv):
 def test_save_stores_the_inputs_as_typed_and_the_result(capsys, loggable_velocity):
     assert _run(capsys, "log", "new", "Quarry Lane repeater hut")[0] == 0
     code, out, err = _run(capsys, "velocity", "--nvp", "66 %", "--json", "--save",
-                          "--label", "reel 7", "--note", "unmarked grey coax", "--units",
-                          "imperial")
+                          "--label", "reel 7", "--note", "unmarked grey coax")
     assert code == 0
     printed = json.loads(out)  # stdout stays exactly one JSON object
     assert "saved velocity 'reel 7' as entry 1 in job 1" in err

@@ -9,7 +9,7 @@ shown is measured over many keys (the median), and set against references
 measured in the same run on the same machine: a key press in the Echo Load
 tab (a form computed on the UI thread with a text result: what any live
 field costs), and the core call behind the panel timed alone (``halftrip
-simulate``'s ``predict``; the trace command's ``compare_with_expected``,
+simulate``'s ``compute``; the trace command's ``compare_with_expected``,
 which is all the Trace panel redoes while only the expectation changes).
 What is left is what the panel adds: the worker thread, the table and the
 plot. The figures are printed; the panels stay usable while the core works
@@ -39,17 +39,21 @@ def core_times(repeats: int) -> tuple[float, float, float]:
     analysis and comparison; the comparison alone (what the panel redoes when
     only the expectation changes: it keeps the analysis of an unchanged file)."""
     from tui.commands import simulate, trace
-    from tui.panels._cli import cli_options
     from tui.panels.trace import DEMO_DIR
 
-    ns = cli_options(simulate, run="10 m:rg58, 20 m:rg59", load="1000 ohm")
+    def options(command, *argv):
+        parser = argparse.ArgumentParser()
+        command.add_arguments(parser)
+        return parser.parse_args(list(argv))
+
+    ns = options(simulate, "--run=10 m:rg58, 20 m:rg59", "--load=1000 ohm")
     sim = []
     for _ in range(repeats):
         t0 = time.perf_counter()
-        simulate.predict(ns)
+        simulate.compute(ns)
         sim.append(time.perf_counter() - t0)
-    tns = cli_options(trace, str(DEMO_DIR / "kestrel-ridge-feeder.csv"), run=RUN,
-                      expect_run=RUN, expect_load="1000 ohm")
+    tns = options(trace, f"--run={RUN}", f"--expect-run={RUN}", "--expect-load=1000 ohm",
+                  str(DEMO_DIR / "kestrel-ridge-feeder.csv"))
     tr, cmp = [], []
     for _ in range(repeats):
         t0 = time.perf_counter()
@@ -128,9 +132,9 @@ def main() -> int:
 
     sim_s, trace_s, compare_s = core_times(max(args.keys // 2, 10))
     plain = asyncio.run(panel_latencies(
-        "echo", "echo-load-spec", "100 ohm", 3, args.keys, {}, view_class=ResultView))
+        "echo", "echo-load-load", "100 ohm", 3, args.keys, {}, view_class=ResultView))
     echo = asyncio.run(panel_latencies(
-        "echo", "echo-run-load", "100 ohm", 3, args.keys, {"echo-run": "10 m:rg58, 20 m:rg59"}))
+        "echo", "echo-run-load", "100 ohm", 3, args.keys, {"echo-run-run": "10 m:rg58, 20 m:rg59"}))
     tr = asyncio.run(panel_latencies(
         "trace", "trace-expect-load", "100 ohm", 3, args.keys,
         {"trace-file": str(DEMO_DIR / "kestrel-ridge-feeder.csv"), "trace-on": RUN}))

@@ -20,8 +20,8 @@ def run_view(app):
     return app.query_one("#echo-run-view")
 
 
-def result_text(app, view_id: str) -> str:
-    return str(app.query_one(f"#{view_id}", ResultView).render())
+def result_text(app, form: str) -> str:
+    return str(app.query_one(f"{form} ResultView", ResultView).render())
 
 
 async def open_echo(pilot, tab: str) -> None:
@@ -35,7 +35,7 @@ async def test_whole_run_is_the_simulate_commands_prediction(capsys):
     app = create_app(start_panel="echo")
     async with app.run_test(size=(80, 24)) as pilot:
         await open_echo(pilot, "run")
-        await type_into(pilot, "echo-run", RUN)
+        await type_into(pilot, "echo-run-run", RUN)
         await type_into(pilot, "echo-run-load", "75 ohm")
         await type_into(pilot, "echo-run-edge", "1 ns")
         await settled(pilot)
@@ -66,7 +66,7 @@ async def test_open_and_short_loads_keep_and_invert_the_step():
     app = create_app(start_panel="echo")
     async with app.run_test(size=(80, 24)) as pilot:
         await open_echo(pilot, "run")
-        await type_into(pilot, "echo-run", "20 m:rg213")
+        await type_into(pilot, "echo-run-run", "20 m:rg213")
         await type_into(pilot, "echo-run-load", "open")
         await settled(pilot)
         assert run_view(app).plot.data.level[-1] > 0.8
@@ -79,14 +79,14 @@ async def test_bad_run_shows_the_error_beside_the_field_and_keeps_the_last_predi
     app = create_app(start_panel="echo")
     async with app.run_test(size=(80, 24)) as pilot:
         await open_echo(pilot, "run")
-        await type_into(pilot, "echo-run", RUN)
+        await type_into(pilot, "echo-run-run", RUN)
         await settled(pilot)
         view = run_view(app)
         good = view.plot.data
         assert not view.is_stale and not view.plot.stale
-        await paste_into(pilot, "echo-run", "10 m:rg58, 20 m:rg5x")
+        await paste_into(pilot, "echo-run-run", "10 m:rg58, 20 m:rg5x")
         await settled(pilot)
-        error = str(app.query_one("#echo-run").parent.query_one(".field-error").render())
+        error = str(app.query_one("#echo-run-run").parent.query_one(".field-error").render())
         assert "rg5x" in error
         assert view.is_stale and view.plot.stale
         assert view.plot.data is good  # the last good prediction stays on screen
@@ -96,7 +96,7 @@ async def test_bad_run_shows_the_error_beside_the_field_and_keeps_the_last_predi
         await settled(pilot)
         assert "width" in str(app.query_one("#echo-run-edge").parent.query_one(".field-error")
                               .render())
-        await type_into(pilot, "echo-run", RUN)
+        await type_into(pilot, "echo-run-run", RUN)
         await type_into(pilot, "echo-run-edge", "")
         await settled(pilot)
         assert not view.is_stale and not view.plot.stale
@@ -106,7 +106,7 @@ async def test_cursor_keys_change_the_readout_and_follow_the_arrivals():
     app = create_app(start_panel="echo")
     async with app.run_test(size=(80, 24)) as pilot:
         await open_echo(pilot, "run")
-        await type_into(pilot, "echo-run", RUN)
+        await type_into(pilot, "echo-run-run", RUN)
         await type_into(pilot, "echo-run-load", "100 ohm")
         await settled(pilot)
         plot = app.query_one("#echo-run-view TracePlot", TracePlot)
@@ -129,7 +129,7 @@ async def test_units_switch_changes_every_length_shown():
     app = create_app(start_panel="echo")
     async with app.run_test(size=(80, 24)) as pilot:
         await open_echo(pilot, "run")
-        await type_into(pilot, "echo-run", RUN)
+        await type_into(pilot, "echo-run-run", RUN)
         await settled(pilot)
         table = run_view(app).table
         assert table.get_row_at(0)[2] == "10.000 m"
@@ -145,8 +145,8 @@ async def test_load_summary_is_the_echo_commands(capsys):
     app = create_app(start_panel="echo")
     async with app.run_test(size=(80, 24)) as pilot:
         await open_echo(pilot, "load")
-        await type_into(pilot, "echo-load-spec", "75 ohm")
-        text = result_text(app, "echo-load-result")
+        await type_into(pilot, "echo-load-load", "75 ohm")
+        text = result_text(app, "LoadForm")
         assert text == out.rstrip("\n")
         # 75 ohm on 50 ohm: Gamma 0.2, return loss 13.98 dB, VSWR 1.5 (the reflection,
         # return loss and VSWR relations of Pozar, Microwave Engineering, ch. 2)
@@ -160,23 +160,23 @@ async def test_load_through_a_run_at_a_frequency_is_the_echo_commands(capsys):
     app = create_app(start_panel="echo")
     async with app.run_test(size=(80, 24)) as pilot:
         await open_echo(pilot, "load")
-        await type_into(pilot, "echo-load-spec", "75 ohm || 10 pF")
+        await type_into(pilot, "echo-load-load", "75 ohm || 10 pF")
         await type_into(pilot, "echo-load-frequency", "100 MHz")
         await type_into(pilot, "echo-load-through", "3 m:rg58")
-        assert result_text(app, "echo-load-result") == out.rstrip("\n")
+        assert result_text(app, "LoadForm") == out.rstrip("\n")
 
 
 async def test_bad_load_marks_the_summary_out_of_date():
     app = create_app(start_panel="echo")
     async with app.run_test(size=(80, 24)) as pilot:
         await open_echo(pilot, "load")
-        await type_into(pilot, "echo-load-spec", "75 ohm")
-        view = app.query_one("#echo-load-result", ResultView)
+        await type_into(pilot, "echo-load-load", "75 ohm")
+        view = app.query_one("LoadForm ResultView", ResultView)
         good = str(view.render())
-        await paste_into(pilot, "echo-load-spec", "75 ohm + 10 pF || 3 nH")
+        await paste_into(pilot, "echo-load-load", "75 ohm + 10 pF || 3 nH")
         assert view.is_stale
         assert str(view.render()) == good
-        error = str(app.query_one("#echo-load-spec").parent.query_one(".field-error").render())
+        error = str(app.query_one("#echo-load-load").parent.query_one(".field-error").render())
         assert "series" in error and "parallel" in error
         await type_into(pilot, "echo-load-frequency", "fast")
         assert str(app.query_one("#echo-load-frequency").parent.query_one(".field-error")
@@ -190,13 +190,13 @@ async def test_backwards_from_a_step_is_the_echo_commands(capsys):
     app = create_app(start_panel="echo")
     async with app.run_test(size=(80, 24)) as pilot:
         await open_echo(pilot, "step")
-        await type_into(pilot, "echo-step-level", "-0.33")
-        text = result_text(app, "echo-step-result")
+        await type_into(pilot, "echo-step-observed-step", "-0.33")
+        text = result_text(app, "StepForm")
         assert text == rho_out.rstrip("\n")
         # Z = Z0 (1 + rho) / (1 - rho) = 50 x 0.67 / 1.33 = 25.19 ohm (Pozar, ch. 2)
         assert "25.19 ohm" in text
-        await type_into(pilot, "echo-step-level", "0.67 V")
-        view = app.query_one("#echo-step-result", ResultView)
+        await type_into(pilot, "echo-step-observed-step", "0.67 V")
+        view = app.query_one("StepForm ResultView", ResultView)
         assert view.is_stale  # volts without the incident step
         await type_into(pilot, "echo-step-incident", "1 V")
-        assert result_text(app, "echo-step-result") == volt_out.rstrip("\n")
+        assert result_text(app, "StepForm") == volt_out.rstrip("\n")

@@ -275,8 +275,8 @@ async def test_locate_panel_saves_what_the_cli_saves_and_reopens_cli_entries(cap
     """The real Locate panel: Ctrl+S stores the same inputs and result as
     'halftrip locate ... --save'; a run saved from the CLI reopens in the Run tab."""
     from tui.app import create_app
-    from tui.widgets.modes import Modes
     from tui.cli import main
+    from tui.widgets.modes import Modes
 
     assert main(["log", "new", "Harbour Road substation"]) == 0
     assert main(["locate", "245 ns", "--cable", "rg58", "--json", "--save",

@@ -23,7 +23,7 @@ def _at_the_project_root(monkeypatch):
 def test_echo_whole_run(snap_compare):
     async def fill(pilot):
         await started(pilot)
-        await type_into(pilot, "echo-run", "10 m:rg58, 20 m:rg59, 5 m:rg58")
+        await type_into(pilot, "echo-run-run", "10 m:rg58, 20 m:rg59, 5 m:rg58")
         await type_into(pilot, "echo-run-load", "100 ohm")
         await type_into(pilot, "echo-run-edge", "1 ns")
         await settled(pilot)
@@ -35,7 +35,7 @@ def test_echo_load_summary(snap_compare):
     async def fill(pilot):
         await started(pilot)
         await pilot.press("escape", "2")
-        await type_into(pilot, "echo-load-spec", "75 ohm || 10 pF")
+        await type_into(pilot, "echo-load-load", "75 ohm || 10 pF")
         await type_into(pilot, "echo-load-frequency", "100 MHz")
 
     assert snap_compare(create_app(start_panel="echo"), terminal_size=(80, 24), run_before=fill)

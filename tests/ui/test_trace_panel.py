@@ -73,7 +73,7 @@ async def test_demo_scenario_events_are_found_where_they_were_put():
     async with app.run_test(size=(80, 24)) as pilot:
         await started(pilot)
         await fill(pilot, KESTREL, demo.KESTREL_RUN)
-        events = view(app).parent.last_result.analysis.events
+        events = view(app).parent.last_result[0].analysis.events
         for truth in demo.KESTREL_EVENTS:
             near = [e for e in events if e.distance_low_m - 0.3 <= truth.distance_m
                     <= e.distance_high_m + 0.3]

@@ -54,17 +54,22 @@ def add_arguments(parser) -> None:
 
 
 def run(args) -> int:
-    return emit(args, *report(args))
+    data, lines, _cables = compute(args)
+    return emit(args, data, lines)
 
 
-def report(args) -> tuple[dict, list[str]]:
-    """(JSON data, text lines) for these options (the TUI's Echo panel shows the same)."""
+def compute(args):
+    """(data, lines, cables used): what ``run`` prints, also shown by the TUI's Echo panel."""
     from calc.parse import parse
+    from calc.run import parse_run
 
     z0 = parse(args.z0, "--z0", "impedance")
     if args.observed_step is not None:
-        return _backwards(args, z0)
-    return _forward(args, z0)
+        return (*_backwards(args, z0), [])
+    data, lines = _forward(args, z0)
+    through = args.through if args.through and ":" in args.through else None
+    cables = [s.cable for s in parse_run(through, catalog().get, "--through")] if through else []
+    return data, lines, cables
 
 
 # -- forward ------------------------------------------------------------------

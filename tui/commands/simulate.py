@@ -20,8 +20,6 @@ SHOWN_ARRIVALS = 16
 WARNING_TEXT = {
     "rise-time-limited": "the grid is too coarse for the rise time asked for; the edge shown "
                          "is {rise}: give more --points or a shorter --span",
-    "tail-folds": "this run rings longer than the largest window holds; a little of its tail "
-                  "folds back into the trace",
     "arrivals-truncated": "there are more small echoes than are listed",
 }
 
@@ -67,13 +65,13 @@ def _points(text: str | None) -> int | None:
 
 
 def run(args) -> int:
-    segments, prediction = predict(args)
-    return emit(args, _data(args, prediction), _lines(args, segments, prediction))
+    data, lines, _cables = compute(args)
+    return emit(args, data, lines)
 
 
-def predict(args):
-    """(run segments, :class:`calc.simulate.Prediction`) for these options (the TUI's
-    Echo panel predicts with the same call)."""
+def compute(args):
+    """(data, lines, cables used): what ``run`` prints; the TUI's Echo panel plots the
+    same data (its arrays and arrivals)."""
     from calc.loads import parse_load
     from calc.parse import parse
     from calc.run import parse_run
@@ -92,7 +90,8 @@ def predict(args):
         n_points=_points(args.points),
         span_s=parse(args.span, "--span", "time") if args.span else None,
     )
-    return run_segments, prediction
+    return _data(args, prediction), _lines(args, segments, prediction), \
+        [s.cable for s in run_segments]
 
 
 def _data(args, p) -> dict:

@@ -21,6 +21,9 @@ from typing import ClassVar
 from calc.errors import InputError
 from tui.widgets.form import LiveForm
 
+#: The key under which :meth:`CommandForm.read_fields` keeps the command line.
+ARGV = "command line"
+
 
 class _Refused(Exception):
     """argparse refused the options (raised instead of exiting)."""
@@ -71,22 +74,36 @@ class CommandForm(LiveForm):
             return [f"--{option}"] if text.lower().startswith("y") else []
         return [f"--{option}={text}"]
 
-    def compute(self, values):
-        return self._run(self.argv())
+    def read_fields(self):
+        values, error = super().read_fields()
+        if error is None:  # read here, on the UI thread, for a THREADED form
+            values[ARGV] = self.argv()
+        return values, error
 
-    def _run(self, argv: list[str]):
+    def compute(self, values):
+        return self._run(values[ARGV])
+
+    @property
+    def command(self):
+        """The module of :mod:`tui.commands` this form stands for."""
         import importlib
 
-        module = importlib.import_module(f"tui.commands.{self.COMMAND}")
+        return importlib.import_module(f"tui.commands.{self.COMMAND}")
+
+    def options(self, argv: list[str]):
+        """The command's parsed options for ``argv`` (in the shown unit system); a
+        refusal by its parser is an InputError naming the option."""
         parser = getattr(type(self), "_parser_cache", None)
         if parser is None:
-            parser = type(self)._parser_cache = _parser(module)
+            parser = type(self)._parser_cache = _parser(self.command)
         units = [f"--units={self.units}", f"--fraction={self.fraction}"]
         try:
-            args = parser.parse_args(argv + units)
+            return parser.parse_args(units + argv)
         except _Refused as exc:
             raise _as_input_error(str(exc)) from None
-        data, lines, cables = module.compute(args)
+
+    def _run(self, argv: list[str]):
+        data, lines, cables = self.command.compute(self.options(argv))
         return data, lines, tuple(c for c in cables if c is not None), argv
 
     def describe(self, result):

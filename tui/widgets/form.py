@@ -13,7 +13,7 @@ and implement
   at a time; a result overtaken by a newer keystroke is dropped), and
   ``ERROR_FIELDS`` to map the core's names for a quantity to a field;
 * optionally ``result_view()`` returning another widget with ResultView's
-  ``show``, ``mark_stale``, ``waiting``, ``update`` and ``is_stale``.
+  ``show``, ``mark_stale``, ``waiting``, ``show_text`` and ``is_stale``.
 
 The form does the rest: it parses every field on each change, shows each
 error beside its field, keeps the last good result on screen marked out of

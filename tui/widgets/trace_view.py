@@ -2,7 +2,7 @@
 
 The Echo panel's whole-run prediction and the Trace panel's recording both
 show this way. It takes the place of a :class:`~tui.widgets.result_view.ResultView`
-in a :class:`~tui.widgets.form.LiveForm` (same methods: ``show``, ``update``,
+in a :class:`~tui.widgets.form.LiveForm` (same methods: ``show``, ``show_text``,
 ``mark_stale``, ``waiting``, ``is_stale``), so the form's fresh, waiting and
 out-of-date states reach all three parts; out of date is said in words in
 the status line and on the plot, not only by colour. Moving the plot's
@@ -63,9 +63,10 @@ class TraceView(Vertical):
 
     def show(self, shown: TraceShown) -> None:
         self.remove_class("-stale", "-waiting")
-        self.update(shown)
+        self.show_text(shown)
 
-    def update(self, shown: TraceShown) -> None:
+    def show_text(self, shown: TraceShown) -> None:
+        """Draw ``shown`` (ResultView's name for redrawing what is shown)."""
         self.shown = shown
         self.status.update(shown.status)
         self.plot.stale = False

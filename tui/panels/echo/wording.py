@@ -11,13 +11,13 @@ WARNINGS = {
 }
 
 
-def prediction_line(p) -> str:
-    """Round trip, arrivals, edge, points and any warning of a
-    :class:`calc.simulate.Prediction` (the CLI's notes, shortened to one line)."""
-    edge = (f"pulse {fmt.time(p.pulse_width_s)}" if p.pulse_width_s
-            else f"step, rise {fmt.time(p.rise_time_s)}")
-    n = len(p.arrivals)
-    parts = [f"round trip {fmt.time(p.round_trip_s)}", f"{n} arrival{'s' if n != 1 else ''}",
-             edge, f"{p.time_s.size} points"]
-    parts += [WARNINGS.get(w, w) for w in p.warnings]
+def prediction_line(data: dict) -> str:
+    """Round trip, arrivals, edge, points and any warning of ``halftrip simulate``'s
+    data (its notes, shortened to one line)."""
+    edge = (f"pulse {fmt.time(data['pulse_width_s'])}" if data["pulse_width_s"]
+            else f"step, rise {fmt.time(data['rise_time_s'])}")
+    n = len(data["arrivals"])
+    parts = [f"round trip {fmt.time(data['round_trip_s'])}",
+             f"{n} arrival{'s' if n != 1 else ''}", edge, f"{len(data['time_s'])} points"]
+    parts += [WARNINGS.get(w, w) for w in data["warnings"]]
     return "; ".join(parts)

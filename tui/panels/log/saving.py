@@ -26,7 +26,6 @@ from __future__ import annotations
 from dataclasses import dataclass
 from functools import partial
 
-
 from tui.panels.log.fields_dialog import Ask, FieldsDialog, required_text
 
 

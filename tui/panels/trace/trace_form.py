@@ -1,11 +1,11 @@
 """The trace form: file, placement and expectation in; events, plot and comparison out.
 
-The file is read, analysed and compared by the same calls ``halftrip trace``
-makes (:func:`tui.commands.trace.analyse_file` and
-:func:`~tui.commands.trace.compare_with_expected`), given the options the
-fields stand for, so the panel and the CLI show the same events. The form
-runs them in a worker thread (``THREADED``), so a large file never holds up
-typing.
+The fields are ``halftrip trace``'s options, and the file is read, analysed
+and compared by the same calls the command makes
+(:func:`tui.commands.trace.analyse_file`, then
+:func:`~tui.commands.trace.compare_with_expected`), so the panel and the CLI
+show the same events. It runs in a worker thread (``THREADED``), and the
+analysis of an unchanged file is kept while only the expectation changes.
 """
 
 from __future__ import annotations
@@ -16,9 +16,9 @@ from dataclasses import dataclass
 from textual.app import ComposeResult
 
 from calc.errors import InputError
+from tui.widgets.command_form import CommandForm
 from tui.widgets.field import Field
-from tui.widgets.form import LiveForm
-from tui.widgets.readers import load_reader, run_reader
+from tui.widgets.readers import as_text, load_reader, run_reader
 from tui.widgets.trace_view import TraceShown, TraceView
 
 FILE_LABEL = "file"
@@ -35,7 +35,35 @@ class TraceResult:
     analysis: object  # calc.events.Analysis, placed
     comparison: object | None  # calc.events.Comparison
     prediction: object | None  # calc.simulate.Prediction of the expected run
-    expected_run: tuple = ()  # calc.run.RunSegment, for the cautions
+
+
+def read_path(text: str, label: str) -> str:
+    if not text.strip():
+        raise InputError(label, "give the trace file's path (Ctrl+O picks one)",
+                         "kestrel-ridge-feeder.csv")
+    return text.strip()
+
+
+def placement_option(text: str) -> str:
+    """The trace option a placement stands for: ``run`` for ``LENGTH:CABLE, ...``,
+    ``vf`` for a number, ``cable`` for a catalog id."""
+    t = text.strip()
+    if ":" in t:
+        return "run"
+    return "vf" if t[:1] in tuple("0123456789.") else "cable"
+
+
+def read_placement(text: str, label: str) -> str:
+    if not text.strip():
+        raise InputError(label, "give the cable, a velocity factor or the run", ON_EXAMPLE)
+    return text.strip()
+
+
+def read_vf_text(text: str, label: str) -> str:
+    from calc.parse import parse
+
+    parse(text, label, "vf")
+    return text.strip()
 
 
 def _file_key(path: str) -> tuple:
@@ -47,61 +75,6 @@ def _file_key(path: str) -> tuple:
     except OSError:
         return (path, None)
     return (path, st.st_mtime_ns, st.st_size)
-
-
-def read_path(text: str, label: str) -> str:
-    if not text.strip():
-        raise InputError(label, "give the trace file's path (Ctrl+O picks one)",
-                         "kestrel-ridge-feeder.csv")
-    return text.strip()
-
-
-def read_placement(text: str, label: str) -> tuple[str, str]:
-    """``("run", text)`` for a run (it has ``LENGTH:CABLE``), ``("vf", text)`` for a
-    number, else ``("cable", id)``; the CLI's own parsing checks the rest."""
-    t = text.strip()
-    if not t:
-        raise InputError(label, "give the cable, a velocity factor or the run", ON_EXAMPLE)
-    if ":" in t:
-        return "run", t
-    if t[0] in "0123456789.":
-        return "vf", t
-    return "cable", t
-
-
-def checked_text(reader):
-    """A reader that checks the text with ``reader`` and keeps ``(text, value)``."""
-
-    def read(text: str, label: str):
-        return text.strip(), reader(text, label)
-
-    return read
-
-
-def read_vf_text(text: str, label: str) -> str:
-    from calc.parse import parse
-
-    parse(text, label, "vf")
-    return text.strip()
-
-
-def trace_options(path: str, placement: tuple[str, str], expect_load: str | None,
-                  expect_run: str | None, axis_vf: str | None):
-    """The options ``halftrip trace`` gets for these fields (its own parser's
-    defaults for the rest). The expected run defaults to the run placed on."""
-    import argparse
-
-    from tui.commands import trace as command
-
-    parser = argparse.ArgumentParser(add_help=False)
-    command.add_arguments(parser)
-    ns = parser.parse_args(["--", path])
-    kind, text = placement
-    setattr(ns, kind, text)
-    ns.axis_vf = axis_vf
-    ns.expect_load = expect_load
-    ns.expect_run = expect_run or (text if expect_load and kind == "run" else None)
-    return ns
 
 
 def rho_trace(setup, analysis):
@@ -128,28 +101,29 @@ def distance_axis(time_s, setup):
     return distance_from_round_trip(time_s, run_segments(setup.segments))
 
 
-class TraceForm(LiveForm):
-    """File, placement (cable, VF or run), expected load and run; distance-axis VF
-    (shown when a file drawn against distance needs it)."""
+class TraceForm(CommandForm):
+    """File, placement (cable, VF or run), expected load and run; the distance-axis
+    VF field shows when a file drawn against distance needs it."""
 
+    COMMAND = "trace"
+    PREFIX = "trace"
+    LOG_KIND = "trace"
     THREADED = True
-    #: (file, placement, axis VF) -> what analyse_file returned: typing in the
-    #: expectation fields compares again without reading the file again.
-    _analysed: tuple | None = None
     ERROR_FIELDS = {"--cable/--vf/--run": "trace-on", "--run": "trace-on", "--cable": "trace-on",
-                    "--vf": "trace-on", "--z0": "trace-on", "--axis-vf": "trace-axis-vf",
+                    "--vf": "trace-on", "--z0": "trace-on",
                     "--expect-run/--expect-load": "trace-expect-run",
-                    "--expect-run": "trace-expect-run", "--expect-load": "trace-expect-load",
                     "trace": "trace-file", "--incident": "trace-file"}
+    #: (file, placement, axis VF) -> what analyse_file returned.
+    _analysed: tuple | None = None
 
     def compose(self) -> ComposeResult:
         catalog = (lambda: self.app.catalog)  # noqa: E731
         yield Field("trace-file", FILE_LABEL, reader=read_path,
                     placeholder="a .csv or .s1p file (Ctrl+O picks one)")
         yield Field("trace-on", "placed on", reader=read_placement, placeholder=ON_EXAMPLE)
-        yield Field("trace-expect-load", "expected load", reader=checked_text(load_reader(catalog)),
+        yield Field("trace-expect-load", "expected load", reader=as_text(load_reader(catalog)),
                     optional=True, placeholder="to compare: open, 50 ohm...")
-        yield Field("trace-expect-run", "expected run", reader=checked_text(run_reader(catalog)),
+        yield Field("trace-expect-run", "expected run", reader=as_text(run_reader(catalog)),
                     optional=True, placeholder="the run placed on, unless given")
         axis = Field("trace-axis-vf", "axis VF", reader=read_vf_text, optional=True,
                      placeholder="VF the instrument drew its distance axis with")
@@ -160,15 +134,26 @@ class TraceForm(LiveForm):
     def result_view(self) -> TraceView:
         return self.query_one(TraceView)
 
-    def compute(self, values):
+    # -- the command line the fields stand for ----------------------------------
+    def argv(self) -> list[str]:
+        texts = {f.field_name.removeprefix("trace-"): f.text.strip() for f in self.fields()}
+        on = texts["on"]
+        argv = [f"--{placement_option(on)}={on}"] if on else []
+        if texts["axis-vf"]:
+            argv.append(f"--axis-vf={texts['axis-vf']}")
+        if texts["expect-load"]:
+            argv.append(f"--expect-load={texts['expect-load']}")
+            run = texts["expect-run"] or (on if placement_option(on) == "run" else "")
+            argv += [f"--expect-run={run}"] if run else []
+        elif texts["expect-run"]:
+            argv.append(f"--expect-run={texts['expect-run']}")
+        return argv + ["--", texts["file"]]
+
+    def _run(self, argv: list[str]):
         from tui.commands.trace import analyse_file, compare_with_expected
 
-        path = values["trace-file"]
-        load = values["trace-expect-load"]
-        run = values["trace-expect-run"]
-        ns = trace_options(path, values["trace-on"], load and load[0], run and run[0],
-                           values["trace-axis-vf"])
-        key = (_file_key(path), values["trace-on"], values["trace-axis-vf"])
+        ns = self.options(argv)
+        key = (_file_key(ns.file), ns.run, ns.vf, ns.cable, ns.axis_vf)
         cached = self._analysed
         if cached is not None and cached[0] == key:
             setup, info, notes, analysis = cached[1]
@@ -176,13 +161,18 @@ class TraceForm(LiveForm):
             try:
                 setup, info, notes, analysis = analyse_file(ns)
             except InputError as exc:
-                raise self._as_file_error(exc, path) from None
+                raise self._as_file_error(exc, ns.file) from None
             self._analysed = (key, (setup, info, notes, analysis))
         setup = copy.copy(setup)  # the comparison notes its prediction on it
         comparison = compare_with_expected(ns, setup, analysis)
-        expected = run[1] if run else (setup.segments or ()) if comparison else ()
-        return TraceResult(setup, info, tuple(notes), analysis, comparison,
-                           getattr(setup, "prediction", None), tuple(expected))
+        result = TraceResult(setup, info, tuple(notes), analysis, comparison,
+                             getattr(setup, "prediction", None))
+        cables = [s.cable for s in setup.segments or ()] + [setup.cable]
+        if comparison is not None and ns.expect_run != ns.run:
+            from calc.run import parse_run
+
+            cables += [s.cable for s in parse_run(ns.expect_run, self.catalog.get, "run")]
+        return result, [], tuple(c for c in cables if c is not None), argv
 
     @staticmethod
     def _as_file_error(exc: InputError, path: str) -> InputError:
@@ -193,22 +183,29 @@ class TraceForm(LiveForm):
             return InputError(FILE_LABEL, problem, exc.example)
         return exc
 
-    def hazards(self, result) -> tuple[str, ...]:
-        cables = [s.cable for s in (result.setup.segments or ())]
-        cables += [result.setup.cable] if result.setup.cable is not None else []
-        cables += [s.cable for s in result.expected_run]
-        return tuple(tag for c in cables for tag in c.hazards)
-
     def describe(self, result) -> TraceShown:
         from tui.panels.trace.wording import trace_shown
 
-        return trace_shown(result, self.units, self.fraction)
+        return trace_shown(result[0], self.units, self.fraction)
+
+    def log_result(self, result) -> dict:
+        """What ``halftrip trace --json`` gives: the events and the comparison."""
+        from tui.commands.trace import comparison_data, event_record
+
+        r = result[0]
+        a = r.analysis
+        data = {**r.info, "rise_time_s": a.rise_time_s, "noise_rms": a.noise_rms,
+                "events": [event_record(e, a.z0_ohm, a.events) for e in a.events],
+                "notes": list(a.notes) + list(r.notes)}
+        if r.comparison is not None:
+            data.update(comparison_data(r.comparison, a))
+        return data
 
     def finish(self, result=None, error=None) -> None:
         super().finish(result, error)
         axis = self.field("trace-axis-vf")
         if (error is not None and self._owner(self.fields(), error) is axis) or (
-                result is not None and result.info.get("axis") == "distance"):
+                result is not None and result[0].info.get("axis") == "distance"):
             axis.display = True  # shown once a file drawn against distance needs it
         view = self.result_view()
         if error is not None and view.is_stale:
