@@ -92,6 +92,15 @@ def emit(args, data: dict, lines: list[str] | str) -> int:
     return 0
 
 
+def emit_computed(args, computed) -> int:
+    """Print what a command's ``compute(args)`` gave, ``(data, lines, cables used)``:
+    the hazard caution for those cables on stderr (only now that every input has
+    been accepted), then :func:`emit`."""
+    data, lines, cables = computed
+    warn_hazards(cables)
+    return emit(args, data, lines)
+
+
 @lru_cache(maxsize=1)
 def catalog():
     """The merged catalog (built-in plus the user's file); problems go to stderr once."""

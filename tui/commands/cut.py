@@ -7,11 +7,10 @@ from tui.commands.common import (
     add_output_options,
     add_velocity_options,
     electrical_length_deg,
-    emit,
+    emit_computed,
     option,
     resolve_velocity,
     units_of,
-    warn_hazards,
 )
 
 NAME = "cut"
@@ -76,9 +75,7 @@ def compute(args):
 
 
 def run(args) -> int:
-    data, lines, cables = compute(args)
-    warn_hazards(cables)
-    return emit(args, data, lines)
+    return emit_computed(args, compute(args))
 
 
 def _record(plan, resolved, piece, fraction) -> dict:

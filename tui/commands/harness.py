@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from tui.commands.common import add_output_options, cable, emit, option, units_of, warn_hazards
+from tui.commands.common import add_output_options, cable, emit_computed, option, units_of
 from tui.commands.match import (
     add_band_options,
     band_of,
@@ -88,9 +88,7 @@ def compute(args):
 
 
 def run(args) -> int:
-    data, lines, cables = compute(args)
-    warn_hazards(cables)
-    return emit(args, data, lines)
+    return emit_computed(args, compute(args))
 
 
 def _line_cable(cable_id, field):

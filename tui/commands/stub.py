@@ -5,11 +5,10 @@ from __future__ import annotations
 from tui.commands.common import (
     add_output_options,
     add_velocity_options,
-    emit,
+    emit_computed,
     option,
     resolve_velocity,
     units_of,
-    warn_hazards,
 )
 
 NAME = "stub"
@@ -136,6 +135,4 @@ def compute(args):
 
 
 def run(args) -> int:
-    data, lines, cables = compute(args)
-    warn_hazards(cables)
-    return emit(args, data, lines)
+    return emit_computed(args, compute(args))
