@@ -79,7 +79,10 @@ KINDS: dict[str, Kind] = {
     "length": Kind("m", "12 ft 6 in", noun="length"),
     "length_or_zero": Kind("m", "15 mm", minimum=0.0, min_inclusive=True, noun="length"),
     "frequency": Kind("Hz", "146.52 MHz", noun="frequency"),
-    "impedance": Kind("ohm", "50 ohm", bare_unit="ohm", noun="impedance"),
+    # 1 micro-ohm to 1 gigaohm: beyond either end no cable or load is meant, and
+    # the terminated-line arithmetic would overflow (common practice).
+    "impedance": Kind("ohm", "50 ohm", bare_unit="ohm", minimum=1e-6, min_inclusive=True,
+                      maximum=1e9, noun="impedance"),
     "resistance": Kind("ohm", "75 ohm", bare_unit="ohm", minimum=0.0, min_inclusive=True,
                        noun="resistance"),
     "capacitance": Kind("F", "10 pF", noun="capacitance"),
