@@ -227,7 +227,13 @@ def time_domain(frequency_hz: np.ndarray, s11: np.ndarray, *, window: str = "kai
 def fft_size(n: int) -> int:
     """The smallest odd 3^a 5^b 7^c at or above ``n``: a length the FFT does
     quickly (one with a large prime factor can take many times longer), and
-    odd like scikit-rf's low-pass transform, so the two share a time grid."""
+    odd like scikit-rf's low-pass transform, so the two share a time grid.
+
+    One helper for the idea: :mod:`calc.simulate` has its own ``_fast_length``
+    (2^k, 3 2^k, 5 2^(k-2)) for its transform; it could call this one instead
+    (numpy's real FFT takes odd lengths; compare with its benchmark first), a
+    change left to the echo work, which owns that module.
+    """
     best = None
     p3 = 1
     while p3 < 3 * n or best is None:

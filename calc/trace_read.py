@@ -300,12 +300,12 @@ def _axis_from_header(field: str, where: str) -> tuple[str | None, str]:
     return None, unit
 
 
-def _level_scale(unit: str, where: str) -> tuple[float, str]:
+def _level_scale(unit: str, where: str, example: str = "level_V") -> tuple[float, str]:
     """(scale to SI, "V" | "rho") for a level unit."""
     key = unit.strip().lower()
     if key in _RHO_UNITS:
         return _RHO_UNITS[key], "rho"
-    return _unit_scale(unit, "voltage", where, "level_V"), "V"
+    return _unit_scale(unit, "voltage", where, example), "V"
 
 
 def _level_from_header(field: str, where: str) -> tuple[float, str]:
@@ -384,7 +384,7 @@ def read_trace(data: bytes | str, name: str = "FILE", *, time_unit: str | None =
     elif distance_unit:
         axis, axis_unit = "distance", distance_unit
     if level_unit:
-        level_scale, level_kind = _level_scale(level_unit, "level unit")
+        level_scale, level_kind = _level_scale(level_unit, "--level-unit", "mV")
     if not axis_unit:
         raise InputError(where_header, "the unit of the first column is not stated; add a "
                          "header such as 'time_ns' or give the time unit (e.g. --time-unit ns)",

@@ -91,6 +91,15 @@ def test_run_json(cli, cli_json):
         t0 + 90.0 / (vf1 * c0) + 3.0 / (vf0 * c0), rel=1e-12)
 
 
+def test_run_text_names_joints_in_words(cli):
+    # "1/2" beside a list of cables reads as half an inch (1/2 in hardline is a
+    # trade size, common practice): joints are "1 and 2"
+    code, out, _ = cli("locate", "300 ns", "--run", RUN)
+    assert code == 0
+    assert "  1 and 2 " in out and "  2 and 3 " in out and "1/2 " not in out
+    assert max(len(line) for line in out.splitlines()) <= 80
+
+
 def test_two_ended_json(cli, cli_json):
     # power-cable fault-location practice (common practice): 250 m x 1.2 / 2.0 = 150 m from A;
     # implied VF = 2 x 250 m / (c0 x 2 us) = 0.833910 (SI c0)
@@ -98,6 +107,14 @@ def test_two_ended_json(cli, cli_json):
     assert data["distance_from_a_m"] == pytest.approx(150.0)
     assert data["distance_from_b_m"] == pytest.approx(100.0)
     assert data["implied_vf"] == pytest.approx(0.833910, rel=1e-6)
+
+
+def test_two_ended_says_what_the_length_error_does(cli):
+    # x_A = L t_A / (t_A + t_B) (power-cable fault-location practice, common practice)
+    # scales with L: 850 m x 6.2 / 10.05 = 524.378 m from A, so 1 % of L is 5.244 m there
+    code, out, _ = cli("locate", "--from-a", "6.2 us", "--from-b", "3.85 us", "--length", "850 m")
+    assert code == 0
+    assert "524.378 m" in out and "each distance is 1 % off (5.244 m from A)" in out
 
 
 def test_two_ended_warns_when_the_catalog_disagrees(cli):

@@ -59,6 +59,17 @@ def _preferences() -> dict:
     return {"units": prefs.units, "fraction": prefs.fraction}
 
 
+def option(args, flag: str, kind: str, default=None):
+    """The option ``flag`` (``"--rise-time"``, read from ``args.rise_time``) parsed as
+    ``kind`` by :func:`calc.parse.parse`, or ``default`` when it was not given."""
+    text = getattr(args, flag.lstrip("-").replace("-", "_"))
+    if text is None:
+        return default
+    from calc.parse import parse
+
+    return parse(text, flag, kind)
+
+
 _last: dict = {}
 
 
@@ -79,6 +90,15 @@ def emit(args, data: dict, lines: list[str] | str) -> int:
         text = lines if isinstance(lines, str) else "\n".join(lines)
         sys.stdout.write(text.rstrip("\n") + "\n")
     return 0
+
+
+def emit_computed(args, computed) -> int:
+    """Print what a command's ``compute(args)`` gave, ``(data, lines, cables used)``:
+    the hazard caution for those cables on stderr (only now that every input has
+    been accepted), then :func:`emit`."""
+    data, lines, cables = computed
+    warn_hazards(cables)
+    return emit(args, data, lines)
 
 
 @lru_cache(maxsize=1)

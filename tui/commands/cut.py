@@ -7,10 +7,10 @@ from tui.commands.common import (
     add_output_options,
     add_velocity_options,
     electrical_length_deg,
-    emit,
+    emit_computed,
+    option,
     resolve_velocity,
     units_of,
-    warn_hazards,
 )
 
 NAME = "cut"
@@ -51,11 +51,10 @@ def compute(args):
     units, fraction = units_of(args)
     frequency = parse(args.frequency, "--frequency", "frequency")
     deg = electrical_length_deg(args)
-    piece = None if args.length is None else parse(args.length, "--length", "length")
-    allowance = 0.0 if args.allowance is None else parse(args.allowance, "--allowance",
-                                                          "length_or_zero")
-    span = None if args.span is None else parse(args.span, "--span", "length")
-    slack = 0.0 if args.slack is None else parse(args.slack, "--slack", "length_or_zero")
+    piece = option(args, "--length", "length")
+    allowance = option(args, "--allowance", "length_or_zero", 0.0)
+    span = option(args, "--span", "length")
+    slack = option(args, "--slack", "length_or_zero", 0.0)
     if span is not None and args.kind is None:
         raise InputError("--kind", "say what the line across --span is: transformer, repeater "
                          "or delay", "transformer")
@@ -76,9 +75,7 @@ def compute(args):
 
 
 def run(args) -> int:
-    data, lines, cables = compute(args)
-    warn_hazards(cables)
-    return emit(args, data, lines)
+    return emit_computed(args, compute(args))
 
 
 def _record(plan, resolved, piece, fraction) -> dict:

@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from tui.commands.common import add_output_options, cable, emit, units_of, warn_hazards
+from tui.commands.common import add_output_options, cable, emit_computed, option, units_of
 from tui.commands.match import (
     add_band_options,
     band_of,
@@ -65,15 +65,14 @@ def compute(args):
     zf = parse(args.feed_z, "--feed-z", "impedance")
     frequency = parse(args.frequency, "--frequency", "frequency")
     band = band_of(args)
-    span = None if args.span is None else parse(args.span, "--span", "length")
+    span = option(args, "--span", "length")
     if span is not None:  # the count is clamped only to keep this finite; harness() refuses it
         reach_m = (min(args.antennas, MAX_ANTENNAS + 1) - 1) * span / 2.0
     else:
-        reach_m = 0.0 if args.arm_reach is None else parse(args.arm_reach, "--arm-reach", "length")
-    slack = 0.0 if args.slack is None else parse(args.slack, "--slack", "length_or_zero")
-    allowance = 0.0 if args.allowance is None else parse(args.allowance, "--allowance",
-                                                          "length_or_zero")
-    tolerance = parse(args.cut_tolerance, "--cut-tolerance", "length_or_zero")
+        reach_m = option(args, "--arm-reach", "length", 0.0)
+    slack = option(args, "--slack", "length_or_zero", 0.0)
+    allowance = option(args, "--allowance", "length_or_zero", 0.0)
+    tolerance = option(args, "--cut-tolerance", "length_or_zero")
     if args.transformer_cable and args.topology != "half":
         raise InputError("--transformer-cable", "only --topology half has a transformer after "
                          "the junction", "rg58")
@@ -89,9 +88,7 @@ def compute(args):
 
 
 def run(args) -> int:
-    data, lines, cables = compute(args)
-    warn_hazards(cables)
-    return emit(args, data, lines)
+    return emit_computed(args, compute(args))
 
 
 def _line_cable(cable_id, field):

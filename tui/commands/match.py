@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from tui.commands.common import add_output_options, catalog, emit, warn_hazards
+from tui.commands.common import add_output_options, catalog, emit_computed
 
 NAME = "match"
 HELP = ("quarter-wave transformer between two impedances: the ideal line impedance and the "
@@ -109,9 +109,7 @@ def compute(args):
 
 
 def run(args) -> int:
-    data, lines, cables = compute(args)
-    warn_hazards(cables)
-    return emit(args, data, lines)
+    return emit_computed(args, compute(args))
 
 
 def _lines(result, units, fraction, fmt) -> list[str]:

@@ -5,10 +5,10 @@ from __future__ import annotations
 from tui.commands.common import (
     add_output_options,
     add_velocity_options,
-    emit,
+    emit_computed,
+    option,
     resolve_velocity,
     units_of,
-    warn_hazards,
 )
 
 NAME = "stub"
@@ -69,13 +69,10 @@ def compute(args):
     units, fraction = units_of(args)
     frequency = parse(args.frequency, "--frequency", "frequency")
     x = present_reactance(args.present)
-    allowance = 0.0 if args.allowance is None else parse(args.allowance, "--allowance",
-                                                          "length_or_zero")
+    allowance = option(args, "--allowance", "length_or_zero", 0.0)
     resolved = resolve_velocity(args, warn=False)
-    z0 = None
-    if args.z0 is not None:
-        z0 = parse(args.z0, "--z0", "impedance")
-    elif resolved.cable is not None:
+    z0 = option(args, "--z0", "impedance")
+    if z0 is None and resolved.cable is not None:
         z0 = resolved.cable.z0_ohm
     if z0 is None and x != 0.0 and not math.isinf(x):
         raise InputError("--z0", "a reactance needs the stub line's Z0 (or give --cable)",
@@ -138,6 +135,4 @@ def compute(args):
 
 
 def run(args) -> int:
-    data, lines, cables = compute(args)
-    warn_hazards(cables)
-    return emit(args, data, lines)
+    return emit_computed(args, compute(args))

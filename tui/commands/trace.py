@@ -15,6 +15,7 @@ from tui.commands.common import (
     add_output_options,
     add_velocity_options,
     emit,
+    option,
     resolve_velocity,
     units_of,
 )
@@ -146,10 +147,8 @@ class _Setup:
 
     def __init__(self, args):
         from calc.errors import InputError
-        from calc.parse import parse
 
-        tolerance = parse(args.tolerance, "--tolerance", "tolerance") if args.tolerance \
-            else None
+        tolerance = option(args, "--tolerance", "tolerance")
         resolved = resolve_velocity(args, args.tolerance)
         if (resolved is None) == (args.run is None):
             raise InputError("--cable/--vf/--run", "give the cable (a velocity option) or "
@@ -168,12 +167,9 @@ class _Setup:
             self.segments = _run(args.run, "--run", tolerance)
             self.source = f"run of {len(self.segments)} segment(s)"
             cable_z0 = self.segments[0].cable.z0_ohm
-        if args.z0:
-            self.z0 = parse(args.z0, "--z0", "impedance")
-        else:
-            self.z0 = cable_z0 or 50.0
+        self.z0 = option(args, "--z0", "impedance", cable_z0 or 50.0)
         self.z0_note = None if (args.z0 or cable_z0) else "reference impedance taken as 50 ohm"
-        self.axis_vf = parse(args.axis_vf, "--axis-vf", "vf") if args.axis_vf else self.vf
+        self.axis_vf = option(args, "--axis-vf", "vf", self.vf)
         self.tolerance = tolerance
 
 
@@ -201,7 +197,6 @@ def _analyse_file(args):
     from calc import events as ev
     from calc.constants import C0_M_PER_S
     from calc.errors import InputError
-    from calc.parse import parse
     from calc.tdr import time_domain
     from calc.trace_read import Sweep, read_file
 
@@ -212,7 +207,7 @@ def _analyse_file(args):
     info: dict = {"file": args.file, "z0_ohm": setup.z0, "velocity_source": setup.source}
     notes: list[str] = [setup.z0_note] if setup.z0_note else []
     ringing = 0.0
-    rise = parse(args.rise_time, "--rise-time", "time") if args.rise_time else None
+    rise = option(args, "--rise-time", "time")
     if isinstance(got, Sweep):
         td = time_domain(got.frequency_hz, got.s11, window=args.window,
                          kaiser_beta=args.kaiser_beta, band_hz=_band(args.band),

@@ -6,7 +6,7 @@ from tui.commands.common import (
     add_electrical_length_options,
     add_output_options,
     electrical_length_deg,
-    emit,
+    emit_computed,
     units_of,
 )
 
@@ -81,5 +81,4 @@ def compute(args):
 
 
 def run(args) -> int:
-    data, lines, _cables = compute(args)
-    return emit(args, data, lines)
+    return emit_computed(args, compute(args))

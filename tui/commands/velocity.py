@@ -10,7 +10,7 @@ HELP = "convert a propagation speed between VF, NVP, eps_r, delay per length, ve
 
 def add_arguments(parser) -> None:
     add_velocity_options(parser, required=True)
-    add_output_options(parser, lengths=False)
+    add_output_options(parser)
 
 
 def describe(v) -> list[str]:
