@@ -181,12 +181,19 @@ def quarter_waves(end: str, order: int) -> int:
 
 
 def _order_hint(vf_one_quarter_wave: float, end: str, order: int) -> str:
-    """Which higher order would make sense of a resonance read as ``order``."""
+    """Which higher order (or, for an open end, a shorted end) would make sense of a
+    resonance read as ``order``."""
+    hints = []
+    if end == "open":
+        vf = vf_one_quarter_wave / quarter_waves("short", order)
+        if vf <= 1.0:
+            hints.append(f"is the far end shorted? (--end short gives VF {vf:.4g})")
     for n in range(order + 1, MAX_ORDER + 1):
         vf = vf_one_quarter_wave / quarter_waves(end, n)
         if vf <= 1.0:
-            return f"is it a higher resonance? (--order {n} gives VF {vf:.4g})"
-    return "check the length and the frequency"
+            hints.append(f"is it a higher resonance? (--order {n} gives VF {vf:.4g})")
+            break
+    return "; ".join(hints) or "check the length and the frequency"
 
 
 def vf_from_stub(length_m: float, frequency_hz: float, end: str = "open", order: int = 1,

@@ -14,7 +14,15 @@ Accepted forms, beyond what pint understands directly:
   ``"3 ft 2-3/8 in"``;
 * percentages: ``"66 %"``, ``"66%"``;
 * fractions of a wavelength: ``"0.25 wl"``, ``"0.25 wavelength"``, ``"0.25 λ"``;
-* ``µ``, ``μ`` and ``u`` as the micro prefix, ``Ω`` for ohm.
+* ``µ``, ``μ`` and ``u`` as the micro prefix, ``Ω`` for ohm;
+* unit symbols in the wrong case, as they get typed on a phone or with caps
+  lock on (``"146 mhz"``, ``"245 NS"``, ``"80 FT"``, ``"10 PF"``): within the
+  field's own kind each symbol is read as the one people mean (MHz, not
+  millihertz; pF, not petafarad; ms, not megaseconds): :data:`CASE_FOLDED`.
+
+A comma inside a number (``"2,5 m"``, ``"1,250 ft"``) is refused: read as
+a decimal comma or as a thousands separator it gives answers a thousand
+times apart, and pint would silently read ``"2,5"`` as 25.
 """
 
 from __future__ import annotations
@@ -22,6 +30,7 @@ from __future__ import annotations
 import math
 import re
 import threading
+import warnings
 from dataclasses import dataclass
 from functools import lru_cache
 
@@ -70,7 +79,10 @@ KINDS: dict[str, Kind] = {
     "length": Kind("m", "12 ft 6 in", noun="length"),
     "length_or_zero": Kind("m", "15 mm", minimum=0.0, min_inclusive=True, noun="length"),
     "frequency": Kind("Hz", "146.52 MHz", noun="frequency"),
-    "impedance": Kind("ohm", "50 ohm", bare_unit="ohm", noun="impedance"),
+    # 1 micro-ohm to 1 gigaohm: beyond either end no cable or load is meant, and
+    # the terminated-line arithmetic would overflow (common practice).
+    "impedance": Kind("ohm", "50 ohm", bare_unit="ohm", minimum=1e-6, min_inclusive=True,
+                      maximum=1e9, noun="impedance"),
     "resistance": Kind("ohm", "75 ohm", bare_unit="ohm", minimum=0.0, min_inclusive=True,
                        noun="resistance"),
     "capacitance": Kind("F", "10 pF", noun="capacitance"),
@@ -91,6 +103,32 @@ KINDS: dict[str, Kind] = {
     "ratio": Kind("dimensionless", "-0.33", bare_unit="dimensionless", minimum=None,
                   noun="level"),
 }
+
+def _symbols(*names: str) -> dict[str, str]:
+    return {n.lower(): n for n in names}
+
+
+_TIME_SYMBOLS = _symbols("fs", "ps", "ns", "us", "ms", "s")
+_LENGTH_SYMBOLS = _symbols("mm", "cm", "m", "km", "ft", "in")
+
+#: Unit symbols read whatever their case, per kind (lower-cased key -> the
+#: symbol people mean in this trade; common practice: nobody here means
+#: millihertz, petafarads or megaseconds).
+CASE_FOLDED: dict[str, dict[str, str]] = {
+    "time": _TIME_SYMBOLS,
+    "length": _LENGTH_SYMBOLS,
+    "length_or_zero": _LENGTH_SYMBOLS,
+    "frequency": _symbols("Hz", "kHz", "MHz", "GHz"),
+    "impedance": _symbols("ohm", "kohm"),
+    "resistance": _symbols("ohm", "kohm"),
+    "capacitance": _symbols("fF", "pF", "nF", "uF"),
+    "inductance": _symbols("pH", "nH", "uH", "mH"),
+    "delay_per_length": _TIME_SYMBOLS | _LENGTH_SYMBOLS,
+    "velocity": _TIME_SYMBOLS | _LENGTH_SYMBOLS,
+    "angle": _symbols("deg"),
+}
+_SYMBOL = re.compile(r"(?<![A-Za-z])[A-Za-z]+(?![A-Za-z])")
+_COMMA_IN_NUMBER = re.compile(r"\d,\d")
 
 _WAVELENGTH_WORDS = ("wavelengths", "wavelength", "lambda", "wl", "λ")
 _NUMBER = r"[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?"
@@ -116,6 +154,14 @@ def _normalise(text: str) -> str:
     t = _MIXED_FRACTION.sub(lambda m: _frac(m.group(1), m.group(2), m.group(3)), t)
     t = _SIMPLE_FRACTION.sub(lambda m: _frac("0", m.group(1), m.group(2)), t)
     return t
+
+
+def _fold_case(text: str, kind: str) -> str:
+    """Unit symbols of ``kind`` in any case -> their proper case (:data:`CASE_FOLDED`)."""
+    symbols = CASE_FOLDED.get(kind)
+    if not symbols:
+        return text
+    return _SYMBOL.sub(lambda m: symbols.get(m.group(0).lower(), m.group(0)), text)
 
 
 def _frac(whole: str, num: str, den: str) -> str:
@@ -156,7 +202,10 @@ def parse(text: str, field: str, kind: str) -> float:
     raw = text.strip()
     if not raw:
         raise _fail(field, k, f"a {k.noun} is required")
-    t = _normalise(raw)
+    if _COMMA_IN_NUMBER.search(raw):
+        raise _fail(field, k, f"{raw!r} has a comma in a number: write decimals with a point "
+                              "and no thousands separator")
+    t = _fold_case(_normalise(raw), kind)
     value: float | None = None
     if kind == "angle":
         for word in _WAVELENGTH_WORDS:
@@ -195,7 +244,9 @@ def _with_pint(t: str, field: str, k: Kind) -> float:
     if q.dimensionality != target.dimensionality:
         raise _fail(field, k, f"{t!r} is not a {k.noun}")
     try:
-        value = float(q.to(k.si_unit).magnitude)
+        with warnings.catch_warnings():  # an overflow (say "1e300 dB") is refused below, quietly
+            warnings.simplefilter("ignore", RuntimeWarning)
+            value = float(q.to(k.si_unit).magnitude)
     except Exception as exc:
         raise _fail(field, k, f"cannot convert {t!r} ({_pint_reason(exc)})") from None
     return value
@@ -221,6 +272,14 @@ def _check_range(value: float, field: str, k: Kind, raw: str) -> float:
         if not k.min_inclusive and value <= k.minimum:
             raise _fail(field, k, f"{raw!r}: the {k.noun} must be greater than {low:g}{unit}")
     if high is not None and value > k.maximum:
+        if k.percent and k.bare_unit == "dimensionless" and re.fullmatch(_NUMBER, raw):
+            raise _fail(field, k, f"{raw!r} is read as a fraction ({value * 100:g} %) and the "
+                                  f"{k.noun} must be at most {high:g}{unit}; for percent write "
+                                  f"'{raw} %'")
+        if k.maximum == 1.0 and not k.percent and re.fullmatch(_NUMBER, raw) \
+                and 10 <= value <= 100:
+            raise _fail(field, k, f"{raw!r}: the {k.noun} must be at most 1; for "
+                                  f"{value:g} percent write '{value / 100:g}' or '{raw} %'")
         raise _fail(field, k, f"{raw!r}: the {k.noun} must be at most {high:g}{unit}")
     return value
 

@@ -55,3 +55,32 @@ def _isolated_user_dirs(tmp_path_factory, monkeypatch):
     common.catalog.cache_clear()
     yield base
     common.catalog.cache_clear()
+
+
+@pytest.fixture
+def cli(capsys):
+    """Run ``halftrip ARGS`` in-process: returns (exit code, stdout, stderr)."""
+    from tui.cli import main
+
+    def call(*argv: str):
+        try:
+            code = main(list(argv))
+        except SystemExit as exc:  # argparse usage errors
+            code = exc.code
+        out, err = capsys.readouterr()
+        return code, out, err
+
+    return call
+
+
+@pytest.fixture
+def cli_json(cli):
+    """Run ``halftrip ARGS --json``, assert exit 0, return the parsed object."""
+    import json
+
+    def call(*argv: str) -> dict:
+        code, out, err = cli(*argv, "--json")
+        assert code == 0, err
+        return json.loads(out)
+
+    return call

@@ -174,3 +174,14 @@ def test_stub_uncertainty_hand_derived():
 def test_stub_round_trips(length, vf, end, order):
     f = stub_resonance_hz(length, vf, end, order)
     assert vf_from_stub(length, f, end, order).vf == pytest.approx(vf, rel=1e-12)
+
+
+def test_shorted_stub_read_as_open_is_refused_with_a_hint():
+    # A shorted stub's first low-impedance resonance is where it is a half wave
+    # (Z_in = j Z0 tan(beta l); Pozar, Microwave Engineering, ch. 2): 1 m at VF 0.66
+    # shows it at 0.66 c0 / 2 m = 98.93 MHz (SI c0). Read with the default open end it
+    # would be a quarter wave at VF 1.32: refused, and the hint names --end short.
+    f = stub_resonance_hz(1.0, 0.66, "short", 1)
+    assert f == pytest.approx(0.66 * 299_792_458.0 / 2.0, rel=1e-12)
+    with pytest.raises(InputError, match=r"--end short gives VF 0\.66"):
+        vf_from_stub(1.0, f, "open", 1)

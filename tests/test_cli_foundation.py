@@ -59,3 +59,23 @@ def test_console_entry_point_runs_as_module():
                          capture_output=True, text=True)
     assert out.returncode == 0
     assert json.loads(out.stdout)["z0_ohm"] == 50.0
+
+
+def test_cables_list_and_show_fit_80_columns(capsys):
+    for argv in (["cables", "list"], ["cables", "show", "mv-xlpe"], ["cables", "show", "rg58"]):
+        code, out, _ = run(capsys, *argv)
+        assert code == 0
+        assert max(len(line) for line in out.splitlines()) <= 80, argv
+
+
+def test_cables_show_in_words(capsys):
+    code, out, _ = run(capsys, "cables", "show", "rg58")
+    assert code == 0
+    assert "velocity factor   0.660 +/- 3 % (NVP 66 %)" in out
+    # The catalog's model at 100 MHz: 1.39 x sqrt(100) + 0.021 x 100 = 16.0 dB per 100 m
+    # (coefficients from the catalog, recalled from memory there).
+    assert "per 100 m: 4.61 dB at 10 MHz, 16 dB at 100 MHz" in out
+    assert "[" not in out  # no Python list shown to people
+    code, out, _ = run(capsys, "cables", "show", "rg58", "--units", "imperial")
+    # 16.0 dB per 100 m x 0.3048 = 4.88 dB per 100 ft (foot exact, 0.3048 m)
+    assert "per 100 ft:" in out and "4.88 dB at 100 MHz" in out

@@ -16,6 +16,7 @@ import io
 import json
 import warnings
 from contextlib import redirect_stderr, redirect_stdout
+from pathlib import Path
 
 import pytest
 from fuzzing import VALUES as FUZZ_VALUES
@@ -55,6 +56,9 @@ BASELINES: dict[str, list[str]] = {
     "simulate": ["simulate", "--run", "10 m:rg58, 20 m:rg213", "--load", "open", "--rise-time",
                  "1 ns", "--points", "2048"],
     "safety": ["safety", "--tag", "power"],
+    "trace": ["trace", str(Path(__file__).resolve().parents[1] / "tui" / "demo"
+                           / "kestrel-ridge-feeder.csv"), "--vf", "0.66", "--z0", "50 ohm",
+              "--time-unit", "ns"],
 }
 
 # Options never fuzzed: they name files to write or read, or a job database.

@@ -73,14 +73,17 @@ def test_eighth_wave_line_input_impedance():
 def test_lossy_shorted_quarter_wave_is_z0_coth_alpha_l():
     # Pozar ch. 2 lossy line Z_in = Z0 (Z_L + Z0 tanh gl)/(Z0 + Z_L tanh gl); for a short,
     # Z0 tanh(al + j pi/2) = Z0 coth(al). With al = 0.1 Np: coth(0.1) = 10.0333111,
-    # Z_in = 501.6656 ohm (by hand). The loss is put in the linear (k2) term, which has no
-    # phase term, so beta l stays exactly pi/2.
-    length = 0.25 * 299_792_458.0 / 100e6  # quarter wave at 100 MHz, VF 1: 0.749481145 m
+    # Z_in = 501.6656 ohm (by hand). The loss is put in the linear (k2) term and evaluated
+    # at the reference frequency of its causal phase term (calc.cable.DIELECTRIC_REF_HZ),
+    # where that term vanishes, so beta l stays exactly pi/2.
+    from calc.cable import DIELECTRIC_REF_HZ as f0
+
+    length = 0.25 * 299_792_458.0 / f0  # quarter wave at f0, VF 1
     alpha_np_per_m = 0.1 / length
-    k2 = alpha_np_per_m * DB_PER_NEPER * 100.0 / 100.0  # dB/100 m/MHz at 100 MHz
+    k2 = alpha_np_per_m * DB_PER_NEPER * 100.0 / (f0 / 1e6)  # dB/100 m/MHz at f0
     c = Cable("lossy", "lossy test line", "coax", 50.0, 1.0, 0.0, "test", atten_k2=k2)
-    s = match.make_section(c, 1, 90.0, 100e6)
-    z = complex(match.section_input_impedance(s, 0.0, 100e6))
+    s = match.make_section(c, 1, 90.0, f0)
+    z = complex(match.section_input_impedance(s, 0.0, f0))
     assert z.real == pytest.approx(501.6656, rel=1e-6)
     assert z.imag == pytest.approx(0.0, abs=1e-6)
 

@@ -136,3 +136,54 @@ def test_feet_and_inches_round_trip(feet, inches, sixteenths):
     fi = to_feet_inches(metres, 16)
     assert (fi.feet, fi.inches) == (feet, inches)
     assert fi.numerator * 16 // fi.denominator == sixteenths
+
+
+# Unit symbols typed in the wrong case are read as the symbol people mean in
+# this trade (common practice: nobody here means millihertz, petafarads or
+# megaseconds). Values from the SI prefixes (BIPM SI Brochure) and the exact
+# foot (0.3048 m) and inch (0.0254 m).
+CASE_FOLDED = [
+    ("146 mhz", "frequency", 146e6),
+    ("146.52MHZ", "frequency", 146.52e6),
+    ("2 ghz", "frequency", 2e9),
+    ("455 khz", "frequency", 455e3),
+    ("245 NS", "time", 245e-9),
+    ("1.2 uS", "time", 1.2e-6),  # uS is microsiemens; in a time field it means us
+    ("3 MS", "time", 3e-3),
+    ("80 FT", "length", 80 * 0.3048),
+    ("12 FT 6 IN", "length", 12 * 0.3048 + 6 * 0.0254),
+    ("45 M", "length", 45.0),
+    ("15 MM", "length_or_zero", 15e-3),
+    ("10 PF", "capacitance", 10e-12),  # not 10 petafarad
+    ("100 NH", "inductance", 100e-9),
+    ("1.54 NS/FT", "delay_per_length", 1.54e-9 / 0.3048),
+    ("198 M/US", "velocity", 198e6),
+    ("90 DEG", "angle", 90.0),
+    ("50 OHM", "impedance", 50.0),
+]
+
+
+@pytest.mark.parametrize("text,kind,expected", CASE_FOLDED)
+def test_unit_symbols_in_any_case(text, kind, expected):
+    assert parse(text, "field", kind) == pytest.approx(expected, rel=1e-12)
+
+
+@pytest.mark.parametrize("text", ["2,5 m", "1,250 ft", "0,66"])
+def test_comma_in_a_number_is_refused(text):
+    # A decimal comma (much of Europe; ISO 80000-1 allows comma or point as the
+    # decimal sign, from memory) and a thousands separator give answers a
+    # thousand times apart: refuse rather than guess. pint alone read "2,5 m" as 25 m.
+    with pytest.raises(InputError) as info:
+        parse(text, "--length", "length" if "m" in text or "ft" in text else "vf")
+    assert "comma in a number" in str(info.value)
+    assert "for example" in str(info.value)
+
+
+def test_bare_number_for_a_percentage_says_how_it_was_read():
+    # A tolerance without a unit is a fraction: "3" is 300 %, not 3 %.
+    with pytest.raises(InputError) as info:
+        parse("3", "--tolerance", "tolerance")
+    assert "300 %" in str(info.value) and "'3 %'" in str(info.value)
+    with pytest.raises(InputError) as info:
+        parse("66", "--vf", "vf")
+    assert "'0.66'" in str(info.value)

@@ -68,3 +68,18 @@ def test_changed_refuses_values_the_file_would_refuse():
         changed(Preferences(), units="cubits")
     with pytest.raises(KeyError):
         changed(Preferences(), colour="red")
+
+
+def test_update_keeps_tables_written_meanwhile_by_another_module():
+    from tui import safety
+    from tui.prefs import update_preferences
+
+    update_preferences(units="imperial")
+    # the safety notice writes its own [safety] table
+    update_preferences(sections={safety.PREFS_TABLE: safety.acknowledgement()})
+    prefs, problem = update_preferences(fraction=32)
+    assert problem is None
+    data = tomllib.loads(preferences_path().read_text(encoding="utf-8"))
+    assert data["units"] == "imperial" and data["fraction"] == 32
+    assert data["safety"]["acknowledged_text_version"] == safety.text_version()
+    assert not safety.notice_needed()

@@ -23,13 +23,15 @@ from textual.reactive import reactive
 from textual.widgets import ContentSwitcher, Footer
 
 from tui.panels import PanelSpec, discover
-from tui.prefs import Preferences, changed, load_preferences, save_preferences, with_section
-from tui.widgets.panel_bar import PanelBar
+from tui.prefs import Preferences, changed, load_preferences, update_preferences, with_section
+from tui.widgets.key_bar import KeyBar
+from tui.widgets.panel_bar import PanelBar, TopBar
 
 #: Keys of the app itself (panel keys are added from the panel modules).
 APP_BINDINGS = [
     Binding("f1,question_mark", "help", "Help", id="help", key_display="F1"),
     Binding("u,f9", "switch_units", "Units", id="units", key_display="u"),
+    Binding("ctrl+s", "save_to_log", "Save to log", id="save_to_log", key_display="^s"),
     Binding("d", "switch_theme", "Dark/light", id="theme", show=False),
     Binding("exclamation_mark", "mark_possibly_live", "Mark line possibly live",
             id="possibly-live", key_display="!", show=False),
@@ -78,22 +80,21 @@ class HalftripApp(App[int]):
 
     # ----------------------------------------------------------------- layout
     def compose(self) -> ComposeResult:
-        yield PanelBar(self.PANELS, self.unit_system)
-        with ContentSwitcher(initial=self._start_panel, id="panels"):
-            for spec in self.PANELS:
-                if spec.name == self._start_panel:
-                    yield spec.module.Panel(id=spec.name)
-        yield Footer()
+        yield TopBar(self.PANELS, self.unit_system)
+        # Panels are mounted when first opened, the first one right after the
+        # first frame (see on_ready), and so is the footer (~15 ms): the first
+        # frame is only this shell.
+        yield ContentSwitcher(id="panels")
 
-    def on_mount(self) -> None:
-        if self.demo and self.PANELS:
-            first = self.query_one(f"#{self._start_panel}")
-            self._fill_demo(next(s for s in self.PANELS if s.name == self._start_panel), first)
+    async def on_ready(self) -> None:
+        """The first frame is on screen (Textual's Ready event): open the first
+        panel, then load the core and run the panels' start hooks."""
+        await self.mount(Footer())
+        if self._start_panel:
+            await self.action_open_panel(self._start_panel)
         self.call_after_refresh(self._after_first_frame)
 
     def _after_first_frame(self) -> None:
-        if self._start_panel:
-            self._focus_in(self.query_one(f"#{self._start_panel}"))
         for problem in self.prefs.problems:
             self.notify(problem, title="Preferences", severity="warning", timeout=10)
         self._load_core()
@@ -123,9 +124,11 @@ class HalftripApp(App[int]):
     def reload_catalog(self) -> None:
         """Read the catalog again (after the user's cable file changed)."""
         from cable_catalog.loader import load_catalog
+        from tui.commands.common import catalog as cli_catalog
         from tui.paths import user_catalog_path
 
         self.catalog = load_catalog(user_catalog_path())
+        cli_catalog.cache_clear()  # the panels that run CLI commands read this one
         self.mutate_reactive(HalftripApp.core_ready)
 
     # ----------------------------------------------------------------- panels
@@ -139,8 +142,6 @@ class HalftripApp(App[int]):
         spec = next(s for s in self.PANELS if s.name == name)
         widget = spec.module.Panel(id=name)
         await switcher.mount(widget)
-        if self.demo:
-            self._fill_demo(spec, widget)
         return widget
 
     @property
@@ -152,25 +153,34 @@ class HalftripApp(App[int]):
         if name not in {s.name for s in self.PANELS}:
             return
         widget = await self.panel(name)
+        if not self.is_running:  # closed while the panel was being mounted
+            return
         self.query_one("#panels", ContentSwitcher).current = name
         self.query_one(PanelBar).current = name
-        self.call_after_refresh(self._focus_in, widget)
+        self.call_after_refresh(self.focus_first_field, widget)
 
-    def _focus_in(self, widget) -> None:
-        first = next((w for w in widget.query("*") if w.focusable), None)
+    def focus_first_field(self, widget) -> None:
+        """The cursor into the panel's first shown text field (else its first stop)."""
+        from textual.widgets import Input
+
+        shown = [w for w in widget.query("*") if w.focusable and w.is_on_screen]
+        first = next((w for w in shown if isinstance(w, Input)), shown[0] if shown else None)
         if first is not None:
             first.focus()
 
-    def _fill_demo(self, spec: PanelSpec, widget) -> None:
-        """Type the panel's demo values (module attribute ``DEMO``: input id -> text)."""
-        from textual.widgets import Input
+    def initial_text(self, field_name: str, default: str) -> str:
+        """What a field starts with: in the demo, the panel's ``DEMO`` text for it."""
+        if not self.demo:
+            return default
+        for spec in self.PANELS:
+            demo = getattr(spec.module, "DEMO", {})
+            if field_name in demo:
+                return demo[field_name]
+        return default
 
-        for input_id, text in getattr(spec.module, "DEMO", {}).items():
-            for field in widget.query(f"#{input_id}").results(Input):
-                field.value = text
-
-    def on_panel_bar_selected(self, message: PanelBar.Selected) -> None:
-        self.run_action(f"open_panel('{message.name}')")
+    def on_key_bar_selected(self, message: KeyBar.Selected) -> None:
+        if isinstance(message.bar, PanelBar):
+            self.run_action(f"open_panel('{message.name}')")
 
     def action_mark_possibly_live(self) -> None:
         """``!``: mark (or unmark) the current panel's line as possibly live."""
@@ -187,26 +197,30 @@ class HalftripApp(App[int]):
                     else "Mark removed; the cable's own cautions still apply", timeout=3)
 
     # ------------------------------------------------------------ preferences
-    def set_prefs(self, prefs: Preferences) -> None:
-        """Keep ``prefs`` and write them; a failure is shown, never raised."""
-        self.prefs = prefs
-        problem = save_preferences(prefs, self.prefs_path)
-        if problem:
+    def change_prefs(self, sections: dict[str, dict] | None = None, **typed) -> None:
+        """Change preferences and write just those to the file (see
+        :func:`tui.prefs.update_preferences`); a failure is shown, never raised."""
+        prefs, problem = update_preferences(self.prefs_path, sections, **typed)
+        if problem:  # keep the change for this session anyway
+            prefs = changed(self.prefs, **typed)
+            for name, values in (sections or {}).items():
+                prefs = with_section(prefs, name, **values)
             self.notify(f"Preferences not saved: {problem}", severity="warning")
+        self.prefs = prefs
 
     def update_section(self, name: str, **values) -> None:
         """Set keys in module ``name``'s table of the preferences and save."""
-        self.set_prefs(with_section(self.prefs, name, **values))
+        self.change_prefs({name: values})
 
     def remember_cable(self, cable_id: str) -> None:
         """The cable last chosen anywhere (new fields start with it)."""
         if cable_id and cable_id != self.prefs.last_cable:
-            self.set_prefs(changed(self.prefs, last_cable=cable_id))
+            self.change_prefs(last_cable=cable_id)
 
     def set_units(self, units: str, fraction: int | None = None) -> None:
         """Switch every shown length to ``units`` at once, and remember it."""
         fraction = fraction or self.prefs.fraction
-        self.set_prefs(changed(self.prefs, units=units, fraction=fraction))
+        self.change_prefs(units=units, fraction=fraction)
         self.unit_system = (units, fraction)
 
     def action_switch_units(self) -> None:
@@ -215,14 +229,21 @@ class HalftripApp(App[int]):
         self.notify(f"Lengths now in {label}", timeout=2)
 
     def watch_unit_system(self, value: tuple[str, int]) -> None:
-        self.query_one(PanelBar).units = value
+        self.query_one(TopBar).units = value
 
     def action_switch_theme(self) -> None:
         self.theme = "textual-light" if self.current_theme.dark else "textual-dark"
 
     def watch_theme(self, theme: str) -> None:
         if self.is_mounted and theme != self.prefs.theme:
-            self.set_prefs(changed(self.prefs, theme=theme))
+            self.change_prefs(theme=theme)
+
+    # ---------------------------------------------------------------- job log
+    def action_save_to_log(self) -> None:
+        """Ctrl+S: save the shown panel's result to the open job (tui.panels.log.saving)."""
+        from tui.panels.log.saving import save_current
+
+        save_current(self)
 
     # ------------------------------------------------------------- help, keys
     def action_help(self) -> None:
@@ -232,9 +253,18 @@ class HalftripApp(App[int]):
             self.push_screen(HelpScreen(key_table(self)))
 
     def action_back_out(self) -> None:
-        """Escape: from a field back to the panel bar (modal screens close themselves)."""
+        """Escape, one step out each time: from a field to the panel's mode bar (if
+        it has modes), from there to the panel bar. Dialogs close themselves."""
         bar = self.query_one(PanelBar)
-        if self.focused is not bar:
+        focused = self.focused
+        panel = self.query_one("#panels", ContentSwitcher).visible_content
+        if focused is None or focused is bar or panel is None:
+            bar.focus()
+            return
+        modes = next(iter(panel.query(KeyBar)), None)
+        if modes is not None and focused is not modes and panel in focused.ancestors:
+            modes.focus()
+        else:
             bar.focus()
 
     def get_system_commands(self, screen):

@@ -73,6 +73,18 @@ def decibels(db: float) -> str:
     return "infinite (no reflection)" if not math.isfinite(db) else f"{db:.2f} dB"
 
 
+def vf(x: float, digits: int = 3) -> str:
+    """A velocity factor: ``"0.660"`` (a catalog or stated one); a measured or
+    derived one carries ``digits=4`` (``"0.6605"``)."""
+    return "-" if x is None or not math.isfinite(x) else f"{x:.{digits}f}"
+
+
+def percent(fraction: float) -> str:
+    """A relative figure as a percentage, three significant digits at most:
+    0.03 -> ``"3 %"``, 0.025 -> ``"2.5 %"``, 0.00816 -> ``"0.816 %"``."""
+    return "-" if fraction is None or not math.isfinite(fraction) else f"{fraction * 100:.3g} %"
+
+
 def ratio(x: float, digits: int = 4) -> str:
     return "infinite" if not math.isfinite(x) else f"{x:.{digits}g}"
 
@@ -96,6 +108,64 @@ def json_ready(obj):
     if isinstance(obj, complex):
         return {"real": json_ready(obj.real), "imag": json_ready(obj.imag)}
     return str(obj)
+
+
+# -- values by their JSON key (job-log reports and entry views) ------------------------------
+
+_ACRONYMS = {"vf": "VF", "vswr": "VSWR", "nvp": "NVP", "eps": "eps", "rf": "RF", "dc": "DC"}
+_UNIT_SUFFIXES = ("m", "s", "hz", "ohm", "db", "percent", "deg")
+
+
+def key_unit(key: str) -> tuple[str, str]:
+    """Split a snake_case key into its name and SI unit suffix: ``distance_low_m`` ->
+    (``distance_low``, ``m``); ``delay_per_length_s_per_m`` -> (``delay_per_length``, ``s/m``)."""
+    parts = key.split("_")
+    if len(parts) >= 4 and parts[-2] == "per" and parts[-3] in _UNIT_SUFFIXES:
+        return "_".join(parts[:-3]), f"{parts[-3]}/{parts[-1]}"
+    if len(parts) >= 2 and parts[-1] in _UNIT_SUFFIXES:
+        return "_".join(parts[:-1]), parts[-1]
+    return key, ""
+
+
+def key_label(key: str) -> str:
+    """A JSON key as words for people: ``distance_low_m`` -> ``distance low``."""
+    name, _unit = key_unit(key)
+    return " ".join(_ACRONYMS.get(w, w) for w in name.split("_") if w) or key
+
+
+def by_key(key: str, value, units: str = "metric", fraction: int = 16) -> str:
+    """A JSON scalar shown for people, formatted by its key's SI suffix."""
+    if value is None:
+        return "-"
+    if isinstance(value, bool):
+        return "yes" if value else "no"
+    if isinstance(value, str):
+        return value
+    if isinstance(value, dict) and set(value) == {"real", "imag"}:
+        value = complex(value["real"] or 0.0, value["imag"] or 0.0)
+    if not isinstance(value, int | float | complex):
+        return str(value)
+    name, unit = key_unit(key)
+    if isinstance(value, complex):
+        return impedance(value) if unit == "ohm" else f"{value.real:.6g} {value.imag:+.6g}j"
+    if isinstance(value, int) and not unit:
+        return str(value)
+    value = float(value)
+    if name.split("_")[0] == "vswr" and not unit:
+        return vswr(value)
+    shown = {
+        "m": lambda v: length(v, units, fraction),
+        "s": time,
+        "hz": frequency,
+        "ohm": impedance,
+        "db": decibels,
+        "percent": lambda v: f"{v:.4g} %",
+        "deg": lambda v: f"{v:.4g} deg",
+    }.get(unit)
+    if shown is not None:
+        return shown(value)
+    text = f"{value:.6g}" if math.isfinite(value) else "infinite"
+    return f"{text} {unit}" if unit else text
 
 
 def other_units(units: str) -> str:
@@ -132,3 +202,54 @@ def table(rows: list[tuple[str, ...]], right: tuple[int, ...] = (),
 def vswr(x: float) -> str:
     """A VSWR to two decimals (``"1.13"``), ``"infinite"`` for a total reflection."""
     return "infinite" if x is None or not math.isfinite(x) else f"{x:.2f}"
+
+
+def text_plot(x, y, width: int = 72, height: int = 11, x_label=None) -> list[str]:
+    """A trace as plain text lines: ``height`` rows of ``width`` columns, a level axis
+    on the left and ``x_label(value)`` under the ends and the middle of the x axis.
+
+    Each column shows the range of levels that fall in it, so a step shows as
+    a vertical run and nothing between samples is lost.
+    """
+    import numpy as np
+
+    x = np.asarray(x, dtype=float)
+    y = np.asarray(y, dtype=float)
+    lo, hi = min(float(np.min(y)), 0.0), max(float(np.max(y)), 0.0)
+    pad = max(0.05 * (hi - lo), 0.01)
+    lo, hi = lo - pad, hi + pad
+    cols = np.clip(((x - x[0]) / max(x[-1] - x[0], 1e-300) * (width - 1)).astype(int), 0,
+                   width - 1)
+    top = np.full(width, -np.inf)
+    bottom = np.full(width, np.inf)
+    np.maximum.at(top, cols, y)
+    np.minimum.at(bottom, cols, y)
+    row = lambda v: int(round((hi - v) / (hi - lo) * (height - 1)))  # noqa: E731
+    grid = [[" "] * width for _ in range(height)]
+    zero = row(0.0)
+    grid[zero] = ["-"] * width
+    for c in range(width):
+        if np.isfinite(top[c]):
+            for r in range(row(top[c]), row(bottom[c]) + 1):
+                grid[r][c] = "*"
+    labels = {0: f"{hi:+.2f}", height - 1: f"{lo:+.2f}"}
+    labels[zero] = "0"
+    lines = [f"{labels.get(r, ''):>6} |" + "".join(grid[r]) for r in range(height)]
+    if x_label is not None:
+        left, mid, right = x_label(x[0]), x_label(0.5 * (x[0] + x[-1])), x_label(x[-1])
+        gap = max(1, (width - len(left) - len(mid) - len(right)) // 2)
+        lines.append(" " * 8 + left + " " * gap + mid + " " * gap + right)
+    return lines
+
+
+def component(value: float, unit: str, digits: int = 3) -> str:
+    """An inductance (``"H"``) or capacitance (``"F"``) with an SI prefix: ``"6.1 nH"``."""
+    return _scaled(value, unit, ((1.0, ""), (1e-3, "m"), (1e-6, "u"), (1e-9, "n"),
+                                 (1e-12, "p"), (1e-15, "f")), digits)
+
+
+def wrapped(line: str, indent: int = 19, width: int = 79) -> list[str]:
+    """One line of text folded to ``width`` columns, later lines indented by ``indent``."""
+    import textwrap
+
+    return textwrap.wrap(line, width=width, subsequent_indent=" " * indent) or [""]

@@ -3,7 +3,7 @@
 The file is plain TOML (read with :mod:`tomllib`) and looks like::
 
     units = "imperial"        # "metric" or "imperial"
-    fraction = 16             # feet and inches to 1/16 in (2, 4, 8, 16, 32 or 64)
+    fraction = 16             # feet and inches to 1/16 in (8, 16 or 32)
     last_cable = "rg8-foam"   # the cable fields start with
     theme = "textual-light"   # any Textual theme name
 
@@ -30,9 +30,8 @@ import tomllib
 from dataclasses import dataclass, field, fields, replace
 from pathlib import Path
 
-from calc.tape import TAPE_DENOMINATORS
-
 UNIT_SYSTEMS = ("metric", "imperial")
+FRACTIONS = (8, 16, 32)  # as the CLI's --fraction
 DEFAULT_THEME = "textual-dark"
 
 
@@ -46,7 +45,7 @@ class Preferences:
 
     fraction: int = 16
     """Feet-and-inches lengths are rounded to 1/fraction inch, as a tape shows
-    them: one of 2, 4, 8, 16, 32, 64."""
+    them: 8, 16 or 32 (the CLI's ``--fraction`` choices)."""
 
     last_cable: str = "rg58"
     """Catalog id of the cable last chosen on any panel; new fields start with it."""
@@ -81,8 +80,8 @@ def _checked(key: str, value: object) -> str | None:
     if key == "units":
         return None if value in UNIT_SYSTEMS else f"use one of {', '.join(UNIT_SYSTEMS)}"
     if key == "fraction":
-        ok = isinstance(value, int) and not isinstance(value, bool) and value in TAPE_DENOMINATORS
-        return None if ok else f"use one of {', '.join(map(str, TAPE_DENOMINATORS))}"
+        ok = isinstance(value, int) and not isinstance(value, bool) and value in FRACTIONS
+        return None if ok else f"use one of {', '.join(map(str, FRACTIONS))}"
     if isinstance(value, str) and value.strip():
         return None
     return "use non-empty text"
@@ -199,3 +198,19 @@ def save_preferences(prefs: Preferences, path: Path | None = None) -> str | None
     except OSError as exc:
         return f"cannot write {path} ({exc})"
     return None
+
+
+def update_preferences(path: Path | None = None, sections: dict[str, dict] | None = None,
+                       **typed) -> tuple[Preferences, str | None]:
+    """Change some preferences in the file and nothing else.
+
+    The file is read again first, so keys and tables written meanwhile by
+    another module (the safety notice's ``[safety]`` table) or another
+    halftrip are kept. Returns the preferences now in force and None, or
+    the preferences (changed in memory only) and why the file was not written.
+    """
+    current = load_preferences(path)
+    new = changed(current, **typed)
+    for name, values in (sections or {}).items():
+        new = with_section(new, name, **values)
+    return new, save_preferences(new, path)

@@ -39,3 +39,46 @@ _KEYS = {" ": "space", "/": "slash", ".": "full_stop", ",": "comma", ":": "colon
 
 def _key(ch: str) -> str:
     return _KEYS.get(ch, ch)
+
+
+async def settled(pilot, timeout: float = 20.0) -> None:
+    """Wait until no live form is computing in a worker thread and its result is shown."""
+    from textual.worker import WorkerState
+
+    def idle() -> bool:
+        return not any(w.group == "live-form" and w.state in (WorkerState.PENDING,
+                                                                WorkerState.RUNNING)
+                       for w in pilot.app.workers)
+
+    await wait_for(pilot, idle, timeout)
+    await pilot.pause()
+
+
+def cli_output(capsys, *argv) -> tuple[int, str, str]:
+    """``halftrip ARGV``: (exit status, stdout, stderr)."""
+    from tui.cli import main
+
+    capsys.readouterr()
+    status = main(list(argv))
+    out = capsys.readouterr()
+    return status, out.out, out.err
+
+
+def cli_json(capsys, *argv) -> dict:
+    """``halftrip ARGV --json`` as a dict (the command must succeed)."""
+    import json
+
+    status, out, err = cli_output(capsys, *argv, "--json")
+    assert status == 0, err
+    return json.loads(out)
+
+
+async def paste_into(pilot, input_id: str, text: str) -> None:
+    """Replace the text of input ``input_id`` in one change (as a paste does), so no
+    half-typed text in between is computed."""
+    from textual.widgets import Input
+
+    field = pilot.app.query_one(f"#{input_id}", Input)
+    field.focus()
+    field.value = text
+    await pilot.pause()

@@ -10,7 +10,7 @@
 
 from __future__ import annotations
 
-from tui.commands.common import add_output_options, emit, units_of
+from tui.commands.common import add_output_options, emit, option, units_of
 
 NAME = "calibrate"
 HELP = "measure a cable's velocity factor from a known length, a reel or a stub resonance"
@@ -82,8 +82,7 @@ def _calibration(args):
             if value is not None:
                 raise InputError(flag, "applies to --resonance only", "--resonance '4.95 MHz'")
         delay_s = parse(args.delay, "--delay", "time")
-        res_s = (parse(args.delay_resolution, "--delay-resolution", "time")
-                 if args.delay_resolution is not None else core.DEFAULT_DELAY_RESOLUTION_S)
+        res_s = option(args, "--delay-resolution", "time", core.DEFAULT_DELAY_RESOLUTION_S)
         method = core.vf_from_reel if args.reel else core.vf_from_delay
         return method(length_m, delay_s, tol_m, res_s)
     if args.delay_resolution is not None:
@@ -91,8 +90,7 @@ def _calibration(args):
     if args.reel:
         raise InputError("--reel", "a reel is measured with --delay", "--delay '1.52 us'")
     frequency_hz = parse(args.resonance, "--resonance", "frequency")
-    res_hz = (parse(args.frequency_resolution, "--frequency-resolution", "frequency")
-              if args.frequency_resolution is not None else None)
+    res_hz = option(args, "--frequency-resolution", "frequency")
     return core.vf_from_stub(length_m, frequency_hz, args.end or "open",
                              1 if args.order is None else args.order, tol_m, res_hz)
 
@@ -117,8 +115,8 @@ def describe_calibration(cal, units: str = "metric", fraction: int = 16) -> list
                                       f"{fmt.frequency(cal.frequency_resolution_hz)}, order "
                                       f"{cal.order}: the stub is {cal.quarter_waves} quarter "
                                       "wave(s)"))
-    lines.append(row("measured VF", f"{cal.vf:.4f}  ({cal.vf_low:.4f} to {cal.vf_high:.4f}, "
-                                    f"+/- {cal.vf_tolerance * 100:.1f} %)"))
+    lines.append(row("measured VF", f"{fmt.vf(cal.vf, 4)}  ({fmt.vf(cal.vf_low, 4)} to "
+                                    f"{fmt.vf(cal.vf_high, 4)}, +/- {fmt.percent(cal.vf_tolerance)})"))
     return lines + describe(from_vf(cal.vf))[1:]
 
 
@@ -151,7 +149,7 @@ def _save(args, cal) -> str:
     try:
         append_user_cable(path, entry)
     except CatalogWriteError as exc:
-        raise InputError("--save-as", str(exc)) from None
+        raise InputError("--save-as", str(exc), "roof-feeder") from None
     except OSError as exc:
         raise InputError("--save-as", f"cannot write {path} ({exc.strerror or exc}); "
                                       "nothing was written") from None

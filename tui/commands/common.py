@@ -24,9 +24,13 @@ from functools import lru_cache
 from calc.errors import InputError
 
 
-def add_output_options(parser: argparse.ArgumentParser) -> None:
+def add_output_options(parser: argparse.ArgumentParser, lengths: bool = True) -> None:
+    """``--json``, and with ``lengths`` (a command that shows lengths) ``--units`` and
+    ``--fraction``."""
     out = parser.add_argument_group("output")
     out.add_argument("--json", action="store_true", help="print one JSON object on stdout")
+    if not lengths:
+        return
     out.add_argument("--units", choices=("metric", "imperial"), default=None,
                      help="lengths in metres or feet and inches (default: your preference)")
     out.add_argument("--fraction", type=int, choices=(8, 16, 32), default=None,
@@ -55,6 +59,17 @@ def _preferences() -> dict:
     return {"units": prefs.units, "fraction": prefs.fraction}
 
 
+def option(args, flag: str, kind: str, default=None):
+    """The option ``flag`` (``"--rise-time"``, read from ``args.rise_time``) parsed as
+    ``kind`` by :func:`calc.parse.parse`, or ``default`` when it was not given."""
+    text = getattr(args, flag.lstrip("-").replace("-", "_"))
+    if text is None:
+        return default
+    from calc.parse import parse
+
+    return parse(text, flag, kind)
+
+
 _last: dict = {}
 
 
@@ -75,6 +90,15 @@ def emit(args, data: dict, lines: list[str] | str) -> int:
         text = lines if isinstance(lines, str) else "\n".join(lines)
         sys.stdout.write(text.rstrip("\n") + "\n")
     return 0
+
+
+def emit_computed(args, computed) -> int:
+    """Print what a command's ``compute(args)`` gave, ``(data, lines, cables used)``:
+    the hazard caution for those cables on stderr (only now that every input has
+    been accepted), then :func:`emit`."""
+    data, lines, cables = computed
+    warn_hazards(cables)
+    return emit(args, data, lines)
 
 
 @lru_cache(maxsize=1)

@@ -7,10 +7,10 @@ from tui.commands.common import (
     add_output_options,
     add_velocity_options,
     electrical_length_deg,
-    emit,
+    emit_computed,
+    option,
     resolve_velocity,
     units_of,
-    warn_hazards,
 )
 
 NAME = "cut"
@@ -41,7 +41,8 @@ def add_arguments(parser) -> None:
     add_output_options(parser)
 
 
-def run(args) -> int:
+def compute(args):
+    """(data, lines, cables used): what ``run`` prints, also shown by the TUI's panel."""
     from calc import cut
     from calc.errors import InputError
     from calc.parse import parse
@@ -50,11 +51,10 @@ def run(args) -> int:
     units, fraction = units_of(args)
     frequency = parse(args.frequency, "--frequency", "frequency")
     deg = electrical_length_deg(args)
-    piece = None if args.length is None else parse(args.length, "--length", "length")
-    allowance = 0.0 if args.allowance is None else parse(args.allowance, "--allowance",
-                                                          "length_or_zero")
-    span = None if args.span is None else parse(args.span, "--span", "length")
-    slack = 0.0 if args.slack is None else parse(args.slack, "--slack", "length_or_zero")
+    piece = option(args, "--length", "length")
+    allowance = option(args, "--allowance", "length_or_zero", 0.0)
+    span = option(args, "--span", "length")
+    slack = option(args, "--slack", "length_or_zero", 0.0)
     if span is not None and args.kind is None:
         raise InputError("--kind", "say what the line across --span is: transformer, repeater "
                          "or delay", "transformer")
@@ -70,9 +70,12 @@ def run(args) -> int:
     plan = cut.plan_cut(frequency, deg, vf, allowance_per_end_m=allowance,
                         vf_tolerance=resolved.tolerance, span_m=span, kind=args.kind,
                         slack_m=slack, denominator=fraction)
-    warn_hazards([resolved.cable])
-    return emit(args, _record(plan, resolved, piece, fraction),
-                _lines(plan, resolved, piece, units, fraction, fmt))
+    return (_record(plan, resolved, piece, fraction),
+            _lines(plan, resolved, piece, units, fraction, fmt), [resolved.cable])
+
+
+def run(args) -> int:
+    return emit_computed(args, compute(args))
 
 
 def _record(plan, resolved, piece, fraction) -> dict:
@@ -116,9 +119,9 @@ def _lines(plan, resolved, piece, units, fraction, fmt) -> list[str]:
                      f"is {fmt.degrees(plan.electrical_deg)}")
     else:
         lines.append(f"{fmt.degrees(plan.electrical_deg)} at {fmt.frequency(plan.frequency_hz)}")
-    tol = f" +/- {resolved.tolerance * 100:.0f} %" if resolved.tolerance else ""
+    tol = f" +/- {fmt.percent(resolved.tolerance)}" if resolved.tolerance else ""
     lines += [
-        f"velocity factor       {plan.vf:.3f}{tol} from {resolved.source}",
+        f"velocity factor       {fmt.vf(plan.vf)}{tol} from {resolved.source}",
         f"wavelength in line    {both(plan.wavelength_in_line_m)}",
         f"physical length       {both(plan.physical_length_m)} between reference planes",
     ]
@@ -137,7 +140,8 @@ def _lines(plan, resolved, piece, units, fraction, fmt) -> list[str]:
             unit = "quarter wave" if r.unit_deg == 90.0 else "half wave"
             how = f"{r.multiple} {unit}{'s' if r.multiple != 1 else ''} ({r.electrical_deg:g} deg)"
         lines.append(f"span                  {fmt.length(r.span_m, units, fraction)} as a "
-                     f"{r.kind}: {how}")
+                     f"{r.kind}:")
+        lines.append(f"                      {how}")
         lines.append(f"                      {fmt.length(r.spare_m, units, fraction)} of line "
                      "beyond the span")
     return lines

@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from tui.commands.common import add_output_options, cable, emit, units_of, warn_hazards
+from tui.commands.common import add_output_options, cable, emit_computed, option, units_of
 from tui.commands.match import (
     add_band_options,
     band_of,
@@ -53,7 +53,8 @@ def add_arguments(parser) -> None:
     add_output_options(parser)
 
 
-def run(args) -> int:
+def compute(args):
+    """(data, lines, cables used): what ``run`` prints, also shown by the TUI's panel."""
     from calc.errors import InputError
     from calc.match import MAX_ANTENNAS, harness
     from calc.parse import parse
@@ -64,15 +65,14 @@ def run(args) -> int:
     zf = parse(args.feed_z, "--feed-z", "impedance")
     frequency = parse(args.frequency, "--frequency", "frequency")
     band = band_of(args)
-    span = None if args.span is None else parse(args.span, "--span", "length")
+    span = option(args, "--span", "length")
     if span is not None:  # the count is clamped only to keep this finite; harness() refuses it
         reach_m = (min(args.antennas, MAX_ANTENNAS + 1) - 1) * span / 2.0
     else:
-        reach_m = 0.0 if args.arm_reach is None else parse(args.arm_reach, "--arm-reach", "length")
-    slack = 0.0 if args.slack is None else parse(args.slack, "--slack", "length_or_zero")
-    allowance = 0.0 if args.allowance is None else parse(args.allowance, "--allowance",
-                                                          "length_or_zero")
-    tolerance = parse(args.cut_tolerance, "--cut-tolerance", "length_or_zero")
+        reach_m = option(args, "--arm-reach", "length", 0.0)
+    slack = option(args, "--slack", "length_or_zero", 0.0)
+    allowance = option(args, "--allowance", "length_or_zero", 0.0)
+    tolerance = option(args, "--cut-tolerance", "length_or_zero")
     if args.transformer_cable and args.topology != "half":
         raise InputError("--transformer-cable", "only --topology half has a transformer after "
                          "the junction", "rg58")
@@ -82,9 +82,13 @@ def run(args) -> int:
                 band_hz=band, arm_reach_m=reach_m, slack_m=slack, allowance_per_end_m=allowance,
                 cut_tolerance_m=tolerance, arm_cable=arm_cable, transformer_cable=tr_cable,
                 allow_parallel=not args.single_only, denominator=fraction)
-    warn_hazards([p.section.cable for p in _pieces(h)])
-    return emit(args, _record(h, span, allowance, fraction, fmt),
-                _lines(h, span, allowance, units, fraction, fmt))
+    return (_record(h, span, allowance, fraction, fmt),
+            _lines(h, span, allowance, units, fraction, fmt),
+            [p.section.cable for p in _pieces(h)])
+
+
+def run(args) -> int:
+    return emit_computed(args, compute(args))
 
 
 def _line_cable(cable_id, field):
@@ -203,7 +207,7 @@ def _lines(h, span, allowance, units, fraction, fmt) -> list[str]:
     rows = [("", *(fmt.frequency(x) for x in ph.frequencies_hz[cols]), "")]
     rows.append((f"cut within +/- {fmt.length(ph.cut_tolerance_m, units, fraction)}",
                  *(f"{x:.2f}" for x in ph.cut_spread_deg[cols]), "deg, arms from one roll"))
-    rows.append((f"rolls with VF +/- {ph.vf_tolerance * 100:.0f} %",
+    rows.append((f"rolls with VF +/- {fmt.percent(ph.vf_tolerance)}",
                  *(f"{x:.2f}" for x in ph.vf_spread_deg[cols]), "deg"))
     lines.append("arm-to-arm phase spread, worst case (two arms at opposite ends of a "
                  "tolerance):")

@@ -16,6 +16,7 @@ from tui.commands.common import (
     add_output_options,
     add_velocity_options,
     emit,
+    option,
     resolve_velocity,
     units_of,
 )
@@ -56,10 +57,6 @@ def _row(label: str, text: str) -> str:
     return f"{label:<{_LABEL}} {text}"
 
 
-def _pct(fraction: float) -> str:
-    return f"{fraction * 100:.1f} %"
-
-
 def _span(low_m: float, high_m: float, units: str, fraction: int) -> str:
     from tui import fmt
 
@@ -84,6 +81,11 @@ def _instrument_lines(limits, units: str, fraction: int) -> list[str]:
     return lines
 
 
+def _instrument(args) -> tuple[float | None, float | None]:
+    """``--rise-time`` and ``--pulse-width`` in seconds (None when not given)."""
+    return option(args, "--rise-time", "time"), option(args, "--pulse-width", "time")
+
+
 def _instrument_data(limits) -> dict:
     data = {}
     if limits.resolution_m is not None:
@@ -104,7 +106,7 @@ def describe_location(loc, source: str, units: str = "metric", fraction: int = 1
     lines = [
         f"velocity from {source}",
         _row("round-trip delay", fmt.time(loc.round_trip_delay_s)),
-        _row("velocity factor", f"{loc.vf:.4g} +/- {_pct(loc.vf_tolerance)}"),
+        _row("velocity factor", f"{fmt.vf(loc.vf)} +/- {fmt.percent(loc.vf_tolerance)}"),
         _row("distance", fmt.length(loc.distance_m, units, fraction)),
         _row("range", _span(loc.distance_low_m, loc.distance_high_m, units, fraction)),
     ]
@@ -129,10 +131,8 @@ def describe_expected(pred, source: str, units: str = "metric", fraction: int = 
 def _one_cable(args, delay_s, distance_m, units, fraction) -> int:
     from calc import locate as core
     from calc.errors import InputError
-    from calc.parse import parse
 
-    rise = parse(args.rise_time, "--rise-time", "time") if args.rise_time is not None else None
-    width = parse(args.pulse_width, "--pulse-width", "time") if args.pulse_width is not None else None
+    rise, width = _instrument(args)
     resolved = resolve_velocity(args, args.tolerance)
     if resolved is None:
         raise InputError("--cable", "give the cable (or a velocity option, or --run)", "rg58")
@@ -181,11 +181,14 @@ def describe_run(segments, units: str = "metric", fraction: int = 16) -> list[st
              f"{fmt.length(junctions[-1].distance_m, units, fraction)} to the far end"]
     for i, s in enumerate(segments, start=1):
         lines.append(f"  {i:>3}  {fmt.length(s.length_m, units, fraction):>17}  "
-                     f"{s.cable.id:<20} VF {s.cable.vf:.3g} +/- {_pct(s.cable.vf_tolerance)}")
+                     f"{s.cable.id:<20} VF {fmt.vf(s.cable.vf)} +/- "
+                     f"{fmt.percent(s.cable.vf_tolerance)}")
     lines.append("expected reflections (round trip from the instrument):")
-    lines.append(f"  {'between':<9} {'distance':>17}  {'round trip':>10}  range")
+    lines.append(f"  {'joint of':<9} {'distance':>17}  {'round trip':>10}  range")
     for j in junctions:
-        label = "far end" if j.is_far_end else f"{j.after_segment_index + 1}/{j.after_segment_index + 2}"
+        # "1 and 2", not "1/2", which a cable person reads as one half
+        label = ("far end" if j.is_far_end
+                 else f"{j.after_segment_index + 1} and {j.after_segment_index + 2}")
         lines.append(f"  {label:<9} {fmt.length(j.distance_m, units, fraction):>17}  "
                      f"{fmt.time(j.round_trip_delay_s):>10}  {fmt.time(j.round_trip_delay_low_s)}"
                      f" to {fmt.time(j.round_trip_delay_high_s)}")
@@ -218,17 +221,14 @@ def describe_run_location(loc, segments, units: str = "metric", fraction: int = 
 def _in_run(args, delay_s, distance_m, units, fraction) -> int:
     from calc import locate as core
     from calc.errors import InputError
-    from calc.parse import parse
     from tui.commands.common import VELOCITY_OPTIONS, warn_hazards
 
     for flag, dest, *_ in VELOCITY_OPTIONS:
         if getattr(args, dest, None) is not None:
             raise InputError(flag, "--run takes each segment's cable from the catalog; "
                                    f"leave out {flag}", "--run '2 m:rg58, 45 m:rg213'")
-    tolerance = (parse(args.tolerance, "--tolerance", "tolerance")
-                 if args.tolerance is not None else None)
-    rise = parse(args.rise_time, "--rise-time", "time") if args.rise_time is not None else None
-    width = parse(args.pulse_width, "--pulse-width", "time") if args.pulse_width is not None else None
+    tolerance = option(args, "--tolerance", "tolerance")
+    rise, width = _instrument(args)
     segments = parse_run_segments(args.run, tolerance)
     seg_data = [{"length_m": s.length_m, "cable_id": s.cable.id, "vf": s.cable.vf,
                  "vf_tolerance": s.cable.vf_tolerance} for s in segments]
@@ -269,13 +269,18 @@ def describe_two_ended(loc, cable_id: str | None, units: str = "metric",
         _row("delay from end B", fmt.time(loc.delay_from_b_s)),
         _row("distance from A", fmt.length(loc.distance_from_a_m, units, fraction)),
         _row("distance from B", fmt.length(loc.distance_from_b_m, units, fraction)),
-        _row("implied VF", f"{loc.implied_vf:.4g}  (from the two readings and the length)"),
+        # x_A = L t_A / (t_A + t_B) scales with L: the length's error is the position's
+        _row("if L is 1 % off", "each distance is 1 % off ("
+                                f"{fmt.length(loc.distance_from_a_m / 100.0, units, fraction)} "
+                                "from A)"),
+        _row("implied VF", f"{fmt.vf(loc.implied_vf, 4)}  (from the two readings and the length)"),
     ]
     if loc.catalog_vf is None:
         return lines
     name = f" ({cable_id})" if cable_id else ""
-    lines.append(_row("catalog VF", f"{loc.catalog_vf:.4g} +/- {_pct(loc.vf_tolerance)}{name}, "
-                                    f"readings differ by {loc.vf_disagreement * 100:+.1f} %"))
+    lines.append(_row("catalog VF", f"{fmt.vf(loc.catalog_vf)} +/- {fmt.percent(loc.vf_tolerance)}"
+                                    f"{name}; the implied VF is {loc.vf_disagreement * 100:+.1f} %"
+                                    " off it"))
     if loc.disagrees:
         lines.append("warning: the implied VF is outside the catalog tolerance: the two readings")
         lines.append("         may not be the same event, or the length is wrong (or the catalog")
@@ -327,8 +332,7 @@ def run(args) -> int:
         raise InputError("DELAY", "give the round-trip delay, or --distance for the reverse "
                                   "(one of the two)", "245 ns")
     delay_s = parse(args.delay, "DELAY", "time") if args.delay is not None else None
-    distance_m = (parse(args.distance, "--distance", "length")
-                  if args.distance is not None else None)
+    distance_m = option(args, "--distance", "length")
     if args.run is not None:
         return _in_run(args, delay_s, distance_m, units, fraction)
     return _one_cable(args, delay_s, distance_m, units, fraction)

@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from tui.commands.common import add_output_options, catalog, emit, warn_hazards
+from tui.commands.common import add_output_options, catalog, emit_computed
 
 NAME = "match"
 HELP = ("quarter-wave transformer between two impedances: the ideal line impedance and the "
@@ -81,7 +81,8 @@ def response_record(resp) -> dict:
     }
 
 
-def run(args) -> int:
+def compute(args):
+    """(data, lines, cables used): what ``run`` prints, also shown by the TUI's panel."""
     from calc.match import quarter_wave_match
     from calc.parse import parse
     from tui import fmt
@@ -104,8 +105,11 @@ def run(args) -> int:
         "candidates": [section_record(c.section) | response_record(c.response)
                        | {"loss_db": c.loss_db} for c in result.candidates],
     }
-    warn_hazards([c.section.cable for c in result.candidates])
-    return emit(args, data, _lines(result, units, fraction, fmt))
+    return (data, _lines(result, units, fraction, fmt), [c.section.cable for c in result.candidates])
+
+
+def run(args) -> int:
+    return emit_computed(args, compute(args))
 
 
 def _lines(result, units, fraction, fmt) -> list[str]:

@@ -5,10 +5,10 @@ from __future__ import annotations
 from tui.commands.common import (
     add_output_options,
     add_velocity_options,
-    emit,
+    emit_computed,
+    option,
     resolve_velocity,
     units_of,
-    warn_hazards,
 )
 
 NAME = "stub"
@@ -46,14 +46,19 @@ def present_reactance(text: str) -> float:
         return 0.0
     if word == "open":
         return math.inf
-    z = parse_complex_impedance(text, "--present")
+    try:
+        z = parse_complex_impedance(text, "--present")
+    except InputError as exc:
+        raise InputError("--present", f"{exc.problem}; give short, open or a reactance",
+                         "j25 ohm") from None
     if z.real != 0.0:
         raise InputError("--present", f"{text.strip()!r}: a lossless stub presents only a "
                          "reactance (no real part), or short or open", "j25 ohm")
     return z.imag
 
 
-def run(args) -> int:
+def compute(args):
+    """(data, lines, cables used): what ``run`` prints, also shown by the TUI's panel."""
     import math
 
     from calc import cut
@@ -64,13 +69,10 @@ def run(args) -> int:
     units, fraction = units_of(args)
     frequency = parse(args.frequency, "--frequency", "frequency")
     x = present_reactance(args.present)
-    allowance = 0.0 if args.allowance is None else parse(args.allowance, "--allowance",
-                                                          "length_or_zero")
+    allowance = option(args, "--allowance", "length_or_zero", 0.0)
     resolved = resolve_velocity(args, warn=False)
-    z0 = None
-    if args.z0 is not None:
-        z0 = parse(args.z0, "--z0", "impedance")
-    elif resolved.cable is not None:
+    z0 = option(args, "--z0", "impedance")
+    if z0 is None and resolved.cable is not None:
         z0 = resolved.cable.z0_ohm
     if z0 is None and x != 0.0 and not math.isinf(x):
         raise InputError("--z0", "a reactance needs the stub line's Z0 (or give --cable)",
@@ -106,16 +108,16 @@ def run(args) -> int:
         return fmt.length_both(v, units, fraction)
 
     end_word = "open" if args.end == "open" else "shorted"
-    what = f"a {presents}"
+    what = {"short": "a short", "open": "an open"}.get(presents)
     if presents == "reactance":
         what = f"{'+' if x > 0 else '-'}j{abs(x):.4g} ohm"
     line_z0 = f"Z0 {fmt.impedance(z0)}, " if z0 else ""
     lines = [f"{end_word} stub presenting {what} at {fmt.frequency(frequency)}"]
     if presents == "reactance":
-        like = (f"{x / omega * 1e9:.4g} nH" if x > 0 else f"{-1e12 / (omega * x):.4g} pF")
+        like = (fmt.component(x / omega, "H") if x > 0 else fmt.component(-1.0 / (omega * x), "F"))
         lines.append(f"(at this frequency only, like {like})")
     lines += [
-        f"line: {line_z0}VF {s.vf:.3f} from {resolved.source}",
+        f"line: {line_z0}VF {fmt.vf(s.vf)} from {resolved.source}",
         f"electrical length  {fmt.degrees(s.electrical_deg)}",
         f"physical length    {both(s.physical_length_m)} to the far end",
     ]
@@ -123,11 +125,14 @@ def run(args) -> int:
         lines.append(f"cut length         {both(c.cut_length_m)} after "
                      f"{fmt.length(allowance, units, fraction)} for the input connector")
     if (presents == "short" and args.end == "short") or (presents == "open" and args.end == "open"):
-        lines.append(f"(a stub of no length presents a {presents} too: this is the shortest "
-                     "piece of line that does)")
+        lines += [f"(a stub of no length presents {what} too:",
+                  " this is the shortest piece of line that does)"]
     lines += [
         f"every further half wave, {both(s.period_m)}, presents the same",
         "Lossless line assumed: a real stub's loss leaves its short or open imperfect.",
     ]
-    warn_hazards([resolved.cable])
-    return emit(args, data, lines)
+    return data, lines, [resolved.cable]
+
+
+def run(args) -> int:
+    return emit_computed(args, compute(args))

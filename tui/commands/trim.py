@@ -6,7 +6,7 @@ from tui.commands.common import (
     add_electrical_length_options,
     add_output_options,
     electrical_length_deg,
-    emit,
+    emit_computed,
     units_of,
 )
 
@@ -31,7 +31,8 @@ def add_arguments(parser) -> None:
     add_output_options(parser)
 
 
-def run(args) -> int:
+def compute(args):
+    """(data, lines, cables used): what ``run`` prints, also shown by the TUI's panel."""
     from calc import cut
     from calc.parse import parse
     from tui import fmt
@@ -73,7 +74,11 @@ def run(args) -> int:
         f"           from {how}",
         f"keep       {both(t.keep_length_m)}  ({t.keep_fraction * 100:.2f} % of it)",
         f"cut off    {both(t.cut_off_m)}",
-        f"implied VF {t.implied_vf:.4f} (from the length and the measurement)",
+        f"implied VF {fmt.vf(t.implied_vf, 4)} (from the length and the measurement)",
         "Take off a little less, measure again, then finish (common practice).",
     ]
-    return emit(args, data, lines)
+    return data, lines, []
+
+
+def run(args) -> int:
+    return emit_computed(args, compute(args))

@@ -16,9 +16,10 @@ def add_arguments(parser) -> None:
 def describe(v) -> list[str]:
     """The human lines for a :class:`calc.velocity.Velocity` (shared with the TUI)."""
     from calc.constants import FOOT_M
+    from tui import fmt
 
     return [
-        f"velocity factor      {v.vf:.4f}",
+        f"velocity factor      {fmt.vf(v.vf, 4)}",
         f"NVP                  {v.nvp_percent:.2f} %",
         f"eps_r (effective)    {v.eps_r:.4f}",
         f"delay per length     {v.delay_per_length_s_per_m * 1e9:.4f} ns/m"

@@ -34,6 +34,11 @@ class Field(Horizontal):
         self._value = value
         self._placeholder = placeholder or (self._example() if kind else "")
         self._tooltip = tooltip
+        self._error_text = ""
+
+    @property
+    def has_error(self) -> bool:
+        return bool(self._error_text)
 
     def _example(self) -> str:
         from calc.parse import KINDS  # light: pint itself loads on first parse
@@ -41,14 +46,16 @@ class Field(Horizontal):
         return f"e.g. {KINDS[self.kind].example}"
 
     def compose(self) -> ComposeResult:
+        self._input = Input(self.app.initial_text(self.field_name, self._value),
+                            placeholder=self._placeholder, id=self.field_name,
+                            compact=True, tooltip=self._tooltip, select_on_focus=False)
         yield Label(self.label, classes="field-label")
-        yield Input(self._value, placeholder=self._placeholder, id=self.field_name,
-                    compact=True, tooltip=self._tooltip, select_on_focus=False)
+        yield self._input
         yield Static("", classes="field-error", markup=False)
 
     @property
     def input(self) -> Input:
-        return self.query_one(Input)
+        return self._input
 
     @property
     def text(self) -> str:
@@ -66,11 +73,24 @@ class Field(Horizontal):
 
         return parse(text, self.label, self.kind)
 
+    def set_text(self, text: str) -> None:
+        """Put ``text`` in the field (as if typed; the form recomputes)."""
+        self._input.value = text
+
     def show_error(self, error: Exception | None) -> None:
-        """Show ``error`` beside the field (its problem and an example), or clear it."""
-        self.input.set_class(error is not None, "-invalid")
-        self.set_class(error is not None, "-invalid")
-        self.query_one(".field-error", Static).update(error_beside(error) if error else "")
+        """Show ``error`` beside the field (its problem and an example), or clear it.
+
+        Does nothing when that is already shown: a class change restyles the
+        row, and this runs on every keystroke."""
+        text = error_beside(error) if error else ""
+        if text == self._error_text:
+            return
+        self._error_text = text
+        # classes on the input and the label only: a class on the row would
+        # restyle all of it
+        self._input.set_class(error is not None, "-invalid")
+        self.query_one(".field-label").set_class(error is not None, "-invalid")
+        self.query_one(".field-error", Static).update(text)
 
 
 def error_beside(error: Exception) -> str:

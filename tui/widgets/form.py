@@ -8,7 +8,12 @@ and implement
   (a dict, field name -> value) and return its result object;
 * ``describe(result) -> str | Content``: format it with ``tui.fmt`` in
   ``self.units`` / ``self.fraction``;
-* optionally ``hazards(result) -> tags`` for the panel's warning line.
+* optionally ``hazards(result) -> tags`` for the panel's warning line;
+* optionally ``THREADED = True`` to run ``compute`` in a worker thread (one
+  at a time; a result overtaken by a newer keystroke is dropped), and
+  ``ERROR_FIELDS`` to map the core's names for a quantity to a field;
+* optionally ``result_view()`` returning another widget with ResultView's
+  ``show``, ``mark_stale``, ``waiting``, ``show_text`` and ``is_stale``.
 
 The form does the rest: it parses every field on each change, shows each
 error beside its field, keeps the last good result on screen marked out of
@@ -19,8 +24,12 @@ redraws the last result when the unit system changes.
 
 from __future__ import annotations
 
+from typing import ClassVar
+
+from textual import work
 from textual.containers import Vertical
 from textual.widgets import Input
+from textual.worker import get_current_worker
 
 from calc.errors import InputError
 from tui.widgets.field import Field, error_beside
@@ -36,10 +45,16 @@ class LiveForm(Vertical):
     LiveForm { height: auto; }
     """
 
+    #: Compute in a worker thread (for slow cores); the result is shown when it comes.
+    THREADED: ClassVar[bool] = False
+    #: The core's names for a quantity (``"--load"``) -> the field name that holds it.
+    ERROR_FIELDS: ClassVar[dict[str, str]] = {}
+
     def __init__(self, *, id: str | None = None, classes: str | None = None) -> None:
         super().__init__(id=id, classes=classes)
         self.last_result = None
         self.last_error: InputError | None = None
+        self._hazards: tuple[str, ...] = ()
 
     # -- for subclasses ---------------------------------------------------
     def compute(self, values: dict[str, object]):
@@ -77,6 +92,11 @@ class LiveForm(Vertical):
     def on_mount(self) -> None:
         self.watch(self.app, "core_ready", self._core_ready_changed)
         self.watch(self.app, "unit_system", self._units_changed, init=False)
+        from textual.widgets import ContentSwitcher
+
+        modes = next((a for a in self.ancestors if isinstance(a, ContentSwitcher)), None)
+        if modes is not None:  # the panel's warning line follows the mode shown
+            self.watch(modes, "current", lambda _now: self._set_hazards(), init=False)
 
     def _core_ready_changed(self, ready: bool) -> None:
         if ready:
@@ -88,7 +108,7 @@ class LiveForm(Vertical):
         if self.last_result is not None:
             view = self.result_view()
             stale = view.is_stale
-            view.update(self.describe(self.last_result))
+            view.show_text(self.describe(self.last_result))
             if stale:
                 view.mark_stale(error_beside(self.last_error) if self.last_error else None)
 
@@ -100,46 +120,89 @@ class LiveForm(Vertical):
         """Parse every field, call the core, show the result or the errors."""
         if not self.app.core_ready:
             return
+        values, error = self.read_fields()
+        if error is not None:
+            self.finish(error=error)
+        elif self.THREADED:
+            self._compute_in_thread(values)
+        else:
+            try:
+                result = self.compute(values)
+            except InputError as exc:
+                self.finish(error=exc)
+            else:
+                self.finish(result)
+
+    def read_fields(self) -> tuple[dict[str, object], InputError | None]:
+        """Every field's value, each error shown beside its field; (values, first error)."""
         values: dict[str, object] = {}
         first_error: InputError | None = None
-        fields = self.fields()
-        for f in fields:
+        for f in self.fields():
             try:
                 values[f.field_name] = f.read()
                 f.show_error(None)
             except InputError as exc:
                 f.show_error(exc)
                 first_error = first_error or exc
+        return values, first_error
+
+    @work(thread=True, exclusive=True, group="live-form")
+    def _compute_in_thread(self, values: dict[str, object]) -> None:
+        """``compute`` off the UI thread (``THREADED`` forms); a result overtaken by a
+        newer keystroke is dropped."""
+        worker = get_current_worker()
+        try:
+            result, error = self.compute(values), None
+        except InputError as exc:
+            result, error = None, exc
+        if not worker.is_cancelled:
+            self.app.call_from_thread(self.finish, result, error)
+
+    def finish(self, result=None, error: InputError | None = None) -> None:
+        """Show ``result``, or ``error`` beside the field it names (the last good
+        result stays, marked out of date)."""
+        fields = self.fields()
         view = self.result_view()
-        if first_error is None:
-            try:
-                result = self.compute(values)
-            except InputError as exc:
-                first_error = exc
-                owner = self._owner(fields, exc)
-                if owner is not None:
-                    owner.show_error(exc)
-        if first_error is not None:
-            self.last_error = first_error
+        if error is not None:
+            owner = self._owner(fields, error)
+            if owner is not None:
+                owner.show_error(error)
+            self.last_error = error
             if self.last_result is None:
-                view.waiting("nothing yet: " + str(first_error))
+                view.waiting("nothing yet: " + str(error))
             else:
-                owned = self._owner(fields, first_error) is not None
-                view.mark_stale(None if owned else str(first_error))
+                view.mark_stale(None if owner is not None else str(error))
             return
         self.last_error = None
         self.last_result = result
         view.show(self.describe(result))
-        self._set_hazards(self.hazards(result))
+        self._hazards = tuple(self.hazards(result))
+        self._set_hazards()
 
     def _owner(self, fields: list[Field], exc: InputError) -> Field | None:
-        return next((f for f in fields if exc.field in (f.label, f.field_name)), None)
+        """The field an error names: by label; through ``ERROR_FIELDS`` (the core's
+        name for the quantity, longest prefix first); or by the CLI option the
+        core named (``--rise-time`` -> the field whose name ends in ``rise-time``)."""
+        name = exc.field or ""
+        for alias in sorted(self.ERROR_FIELDS, key=len, reverse=True):
+            if name == alias or name.startswith(alias + " "):
+                name = self.ERROR_FIELDS[alias]
+                break
+        key = name.split()[0].lstrip("-") if name else ""
+        for f in fields:
+            if name in (f.label, f.field_name) or (key and (f.field_name == key
+                                                            or f.field_name.endswith("-" + key))):
+                return f
+        return None
 
-    def _set_hazards(self, tags) -> None:
+    def _set_hazards(self) -> None:
+        """Show this form's hazards on the panel's warning line, if this form is shown."""
         from tui.widgets.warning_line import WarningLine
 
         for node in self.ancestors_with_self:
-            lines = node.query_children(WarningLine) if hasattr(node, "query_children") else []
+            lines = node.query_children(WarningLine)
             if lines:
-                lines.first().set_hazards(tags)
+                lines.first().set_hazards(self._hazards)
+                return
+            if not node.display:  # a mode not shown: its hazards wait for it
                 return

@@ -26,8 +26,10 @@ class WarningLine(Static):
     def on_mount(self) -> None:
         self._show()
 
-    def set_hazards(self, tags) -> None:
+    def set_hazards(self, tags, possibly_live: bool | None = None) -> None:
         self.tags = tuple(sorted(set(tags)))
+        if possibly_live is not None:
+            self.possibly_live = possibly_live
 
     def watch_tags(self) -> None:
         self._show()
@@ -36,6 +38,9 @@ class WarningLine(Static):
         self._show()
 
     def _show(self) -> None:
+        if not self.tags and not self.possibly_live:
+            self.display = False  # no need to read the caution text (start-up)
+            return
         from tui.safety import warning_line
 
         line = warning_line(self.tags, self.possibly_live)

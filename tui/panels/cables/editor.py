@@ -86,6 +86,24 @@ def initial_values(base, measured: bool, taken) -> dict[str, str]:
     }
 
 
+def measured_values(cal) -> dict[str, str]:
+    """The editor's starting text for a :class:`calc.calibrate.Calibration`."""
+    import math
+
+    from tui import fmt
+
+    what = (f"{fmt.length(cal.length_m)}, {fmt.time(cal.delay_s)} round trip" if cal.delay_s
+            else f"{fmt.length(cal.length_m)}, order {cal.order}, "
+                 f"{fmt.frequency(cal.frequency_hz)}")
+    tolerance = math.ceil(cal.vf_tolerance * 1e4) / 1e2  # percent, rounded up: never tighter
+    return {
+        "new-id": "", "new-description": f"measured cable, VF {cal.vf:.3f}",
+        "new-category": "coax", "new-z0": "50 ohm", "new-vf": f"{cal.vf:.4f}",
+        "new-tolerance": f"{tolerance:g} %",
+        "new-source": f"measured on {date.today().isoformat()} ({cal.method}: {what})",
+    }
+
+
 class CableEditor(ModalScreen[str | None]):
     """Add one cable to the user's file; dismisses with its id, or None."""
 
@@ -94,14 +112,16 @@ class CableEditor(ModalScreen[str | None]):
         Binding("ctrl+s", "save", "Save", id="editor.save"),
     ]
 
-    def __init__(self, catalog, base=None, measured: bool = False) -> None:
+    def __init__(self, catalog, base=None, measured: bool = False,
+                 values: dict[str, str] | None = None) -> None:
         super().__init__()
         self.catalog = catalog
         self.base = base
-        self.measured = measured
+        self.measured = measured or values is not None
+        self.values = values
 
     def compose(self) -> ComposeResult:
-        values = initial_values(self.base, self.measured, set(self.catalog.cables))
+        values = self.values or initial_values(self.base, self.measured, set(self.catalog.cables))
         title = ("Save a measured VF" if self.measured else
                  "New cable" if self.base is None else f"New cable from {self.base.id}")
         with Vertical(id="editor-body") as body:
@@ -123,7 +143,7 @@ class CableEditor(ModalScreen[str | None]):
                 ("new-source", "source", dict(reader=_required)),
                 ("new-notes", "notes", dict(reader=_text)),
             ]
-            order = ["new-vf"] if self.measured else []
+            order = ["new-id"] if self.values else ["new-vf"] if self.measured else []
             specs.sort(key=lambda s: s[0] not in order)
             for name, label, kw in specs:
                 yield Field(name, label, value=values.get(name, ""), **kw)

@@ -1,0 +1,98 @@
+"""The Whole run mode: the predicted trace of a run of catalog cables and a load
+(``halftrip simulate``), plotted against distance with its arrivals listed."""
+
+from __future__ import annotations
+
+from textual.app import ComposeResult
+
+from tui.widgets.command_form import CommandForm
+from tui.widgets.field import Field
+from tui.widgets.readers import as_text, load_reader, run_reader
+from tui.widgets.trace_view import TraceShown, TraceView
+
+COLUMNS = ("#", "delay", "distance", "size", "path")
+EDGE_EXAMPLE = "rise 1 ns, or pulse 10 ns"
+#: The prediction's arrays are not kept in the job log (the inputs remake them).
+NOT_LOGGED = ("time_s", "distance_m", "level")
+
+
+def read_edge(text: str, label: str) -> tuple[str, str] | None:
+    """The instrument's edge as the simulate option: ``("rise-time", "1 ns")`` for
+    ``1 ns`` or ``rise 1 ns``, ``("pulse-width", "10 ns")`` for ``pulse 10 ns``;
+    None (empty or ``step``) for the sharpest step the prediction's grid shows."""
+    from calc.errors import InputError
+    from calc.parse import parse
+
+    t = " ".join(text.split())
+    low = t.lower()
+    if low in ("", "step"):
+        return None
+    option = "pulse-width" if low.startswith("pulse") else "rise-time"
+    for word in ("pulse width", "pulse", "step", "rise time", "rise"):
+        if low.startswith(word):
+            t, low = t[len(word):].strip(), low[len(word):].strip()
+    if not t:
+        what = "a pulse needs its width" if option == "pulse-width" else "give the rise time"
+        raise InputError(label, what, EDGE_EXAMPLE)
+    parse(t, label, "time")
+    return option, t
+
+
+class RunForm(CommandForm):
+    """Run, load, source impedance and edge; the prediction runs in a worker thread
+    (``THREADED``), so typing never waits for it."""
+
+    COMMAND = "simulate"
+    PREFIX = "echo-run"
+    LOG_KIND = "simulate"
+    THREADED = True
+    ERROR_FIELDS = {"--rise-time": "echo-run-edge", "--pulse-width": "echo-run-edge",
+                    "--span": "echo-run-edge"}
+
+    def compose(self) -> ComposeResult:
+        catalog = (lambda: self.app.catalog)  # noqa: E731
+        yield Field("echo-run-run", "run", reader=as_text(run_reader(catalog)),
+                    placeholder="10 m:rg58, 20 m:rg213")
+        yield Field("echo-run-load", "load", reader=as_text(load_reader(catalog)), value="open",
+                    placeholder="open, short, 75 ohm, 10 pF, 75 ohm || 10 pF")
+        yield Field("echo-run-source-z", "source Z", kind="impedance", optional=True,
+                    placeholder="matched to the first cable")
+        yield Field("echo-run-edge", "edge", reader=read_edge, optional=True,
+                    placeholder=EDGE_EXAMPLE)
+        yield TraceView(COLUMNS, empty_text="no prediction yet", id="echo-run-view")
+
+    def option_args(self, option: str, text: str) -> list[str]:
+        if option == "edge":
+            edge = read_edge(text, "edge")
+            return [f"--{edge[0]}={edge[1]}"] if edge else []
+        return super().option_args(option, text)
+
+    def result_view(self) -> TraceView:
+        return self.query_one(TraceView)
+
+    def describe(self, result) -> TraceShown:
+        from tui import fmt
+        from tui.panels.echo.wording import prediction_line
+        from tui.widgets.trace_plot import Mark, PlotData
+
+        data, _lines, cables, _argv = result
+        units, fraction = self.units, self.fraction
+        marks, rows, details = [], [], {}
+        for i, a in enumerate(data["arrivals"], start=1):
+            key = str(i)
+            marks.append(Mark(key, a["time_s"], a["distance_m"], f"{a['size']:+.3f} {a['path']}"))
+            rows.append((key, fmt.time(a["time_s"]), fmt.length(a["distance_m"], units, fraction),
+                         f"{a['size']:+.3f}", a["path"]))
+            details[key] = f"{key}: {a['path']}"
+        plot = PlotData(data["time_s"], data["distance_m"], data["level"], tuple(marks),
+                        z0_ohm=cables[0].z0_ohm if cables else None)
+        return TraceShown(prediction_line(data), plot, rows, details)
+
+    def log_result(self, result) -> dict:
+        return {k: v for k, v in result[0].items() if k not in NOT_LOGGED}
+
+    def finish(self, result=None, error=None) -> None:
+        super().finish(result, error)
+        view = self.result_view()
+        if error is not None and view.is_stale:
+            view.status.update(f"out of date (last good prediction shown): {error}")

@@ -1,0 +1,42 @@
+"""A table of the numbered marks of a trace plot (arrivals, events), one row each."""
+
+from __future__ import annotations
+
+from textual.widgets import DataTable
+
+
+class MarkTable(DataTable):
+    """Rows whose first cell is the mark's number on the plot (also the row key)."""
+
+    def __init__(self, columns: tuple[str, ...], id: str | None = None) -> None:
+        super().__init__(id=id, cursor_type="row", zebra_stripes=False)
+        self.columns_text = columns
+
+    def on_mount(self) -> None:
+        self.add_columns(*self.columns_text)
+
+    def fill(self, rows: list[tuple[str, ...]], columns: tuple[str, ...] | None = None) -> None:
+        """Replace the rows (and the columns, if given and different), keeping the
+        highlighted number where it still exists."""
+        keep = self.highlighted_key()
+        if columns is not None and columns != self.columns_text:
+            self.clear(columns=True)
+            self.columns_text = columns
+            self.add_columns(*columns)
+        else:
+            self.clear()
+        for row in rows:
+            self.add_row(*row, key=row[0])
+        if keep is not None:
+            self.highlight(keep)
+
+    def highlighted_key(self) -> str | None:
+        if not self.row_count:
+            return None
+        return self.coordinate_to_cell_key(self.cursor_coordinate).row_key.value
+
+    def highlight(self, key: str) -> None:
+        """Put the row cursor on row ``key`` if it is there."""
+        keys = [r.key.value for r in self.ordered_rows]
+        if key in keys:
+            self.move_cursor(row=keys.index(key))
