@@ -93,7 +93,10 @@ async def handled(widget) -> None:
     for node in (widget, *widget.ancestors):
         done = asyncio.Event()
         if node.call_later(done.set):
-            await done.wait()
+            try:
+                await asyncio.wait_for(done.wait(), SETTLE_S)
+            except TimeoutError:
+                raise AssertionError(f"{node!r} handled nothing for {SETTLE_S} s") from None
 
 
 def typeable(text: str) -> bool:
