@@ -17,8 +17,10 @@ import tempfile
 import tomllib
 from dataclasses import dataclass, field
 from pathlib import Path
+from typing import TYPE_CHECKING
 
-from calc.cable import Cable
+if TYPE_CHECKING:  # at run time imported where cables are built: it brings numpy
+    from calc.cable import Cable
 
 CATALOG_DIR = Path(__file__).resolve().parent
 CATEGORIES = ("coax", "twisted-pair", "twin-lead", "power")
@@ -93,6 +95,8 @@ def _number(entry: dict, key: str, where: str, report: _Report, lo: float, hi: f
 
 
 def _cable(entry: object, where: str, origin: str, report: _Report) -> Cable | None:
+    from calc.cable import Cable  # numpy: not needed to build the CLI's parser
+
     if not isinstance(entry, dict):
         report.add(where, "a [[cable]] entry must be a table")
         return None

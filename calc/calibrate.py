@@ -37,6 +37,7 @@ from dataclasses import dataclass
 from calc.constants import C0_M_PER_S
 from calc.errors import InputError
 from calc.locate import check_positive, check_vf, faster_than_light
+from calc.velocity import VF_MIN
 
 DEFAULT_LENGTH_TOLERANCE = 0.005  # relative, of a length measured with a tape
 DEFAULT_REEL_LENGTH_TOLERANCE = 0.02  # relative, of a length printed on a reel
@@ -93,9 +94,13 @@ def _checked_length(length_m: float, length_tolerance_m: float) -> tuple[float, 
 
 
 def _at_most_light(vf: float, field: str, hint: str) -> float:
-    """``vf``, or :class:`InputError` if it is faster than light (beyond float rounding)."""
+    """``vf``, or :class:`InputError` if it is faster than light (beyond float rounding)
+    or slower than :data:`calc.velocity.VF_MIN`."""
     if faster_than_light(vf):
         raise InputError(field, f"these readings give VF {vf:.4g}, faster than light; {hint}")
+    if vf < VF_MIN:
+        raise InputError(field, f"these readings give VF {vf:.4g}, below {VF_MIN:g}, slower "
+                                "than any cable; check the length and the reading")
     return min(vf, 1.0)
 
 
@@ -224,8 +229,7 @@ def vf_from_stub(length_m: float, frequency_hz: float, end: str = "open", order:
         raise InputError("--frequency-resolution", f"{d_f:g} Hz is not smaller than the "
                                                    f"resonance {frequency_hz:g} Hz", "50 kHz")
     vf = 4.0 * length_m * frequency_hz / (m * C0_M_PER_S)
-    if vf > 1.0:
-        vf = _at_most_light(vf, "--resonance", _order_hint(vf * m, end, order))
+    vf = _at_most_light(vf, "--resonance", _order_hint(vf * m, end, order) if vf > 1.0 else "")
     return Calibration(
         method=f"stub-{end}",
         vf=vf,

@@ -227,11 +227,13 @@ def _plain_number(text: str, field: str, k: Kind) -> float:
 
 
 def _with_pint(t: str, field: str, k: Kind) -> float:
-    ureg = _ureg()
     if re.fullmatch(_NUMBER, t):
         if k.bare_unit is None:
             raise _fail(field, k, f"{t!r} needs a unit")
+        if k.bare_unit == k.si_unit:  # already in the SI unit: no registry needed (~0.5 s)
+            return float(t)
         t = f"{t} {k.bare_unit}"
+    ureg = _ureg()
     try:
         q = ureg.Quantity(t)
     except Exception as exc:  # pint raises many types for bad text; all mean the same here

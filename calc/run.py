@@ -33,9 +33,10 @@ def parse_run(text: str, lookup: Callable[[str], Cable], field: str = "--run") -
     """Parse a run description; ``lookup(id)`` returns a Cable or raises KeyError."""
     if not isinstance(text, str) or not text.strip():
         raise InputError(field, "a run needs at least one segment", EXAMPLE)
+    count = text.count(",") + text.count(";") + 1  # before splitting: a pasted megabyte
+    if count > MAX_SEGMENTS:                         # would make a million strings
+        raise InputError(field, f"{count} segments; at most {MAX_SEGMENTS}", EXAMPLE)
     parts = [p.strip() for p in text.replace(";", ",").split(",")]
-    if len(parts) > MAX_SEGMENTS:
-        raise InputError(field, f"{len(parts)} segments; at most {MAX_SEGMENTS}", EXAMPLE)
     segments = []
     for i, part in enumerate(parts, start=1):
         if not part:
