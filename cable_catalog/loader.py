@@ -222,10 +222,28 @@ def load_catalog(user_file: Path | None = None) -> Catalog:
                    Path(user_file) if user_file else None)
 
 
+#: TOML basic-string escapes; other control characters are written as \uXXXX.
+_ESCAPES = {"\\": "\\\\", '"': '\\"', "\b": "\\b", "\t": "\\t", "\n": "\\n", "\f": "\\f",
+            "\r": "\\r"}
+
+
+def _toml_string(text: str) -> str:
+    """``text`` as a TOML basic string. Control characters (a pasted description
+    can hold them) are escaped: written raw, they make the whole file unreadable."""
+    out = []
+    for ch in text:
+        if ch in _ESCAPES:
+            out.append(_ESCAPES[ch])
+        elif ord(ch) < 0x20 or ord(ch) == 0x7F:
+            out.append(f"\\u{ord(ch):04x}")
+        else:
+            out.append(ch)
+    return '"' + "".join(out) + '"'
+
+
 def _toml_value(value: object) -> str:
     if isinstance(value, str):
-        escaped = value.replace("\\", "\\\\").replace('"', '\\"').replace("\n", "\\n")
-        return f'"{escaped}"'
+        return _toml_string(value)
     if isinstance(value, bool):
         return "true" if value else "false"
     if isinstance(value, float):
@@ -280,6 +298,11 @@ def append_user_cable(user_file: Path, entry: dict) -> Cable:
         existing = ("# halftrip: your own cables. Same format as the shipped catalog "
                     "(see cable_catalog/coax.toml in the program).\n")
     text = existing.rstrip("\n") + "\n\n" + cable_table(entry)
+    try:  # never write what would not read back (an unpaired surrogate from a bad terminal)
+        tomllib.loads(text.encode("utf-8").decode("utf-8"))
+    except (UnicodeError, tomllib.TOMLDecodeError) as exc:
+        raise CatalogWriteError(f"this entry cannot be stored ({exc}); nothing was written"
+                                ) from None
     try:
         user_file.parent.mkdir(parents=True, exist_ok=True)
         atomic_write_text(user_file, text)

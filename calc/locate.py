@@ -415,16 +415,18 @@ def run_delay_for_distance(distance_m: float, segments: Sequence[RunSegment]) ->
         raise OutOfRunError("distance", f"{distance_m:.4g} m is beyond the far end of the run "
                                         f"({total_m:.4g} m long)")
     t_nom = t_lo = t_hi = 0.0
-    start = 0.0
+    start = slowness = 0.0
     for seg in segments:
         part = min(max(distance_m - start, 0.0), seg.length_m)
         vf_lo, vf_hi = vf_bounds(seg.cable.vf, seg.cable.vf_tolerance)
         t_nom += delay_from_distance_s(part, seg.cable.vf)
         t_lo += delay_from_distance_s(part, vf_hi)
         t_hi += delay_from_distance_s(part, vf_lo)
+        slowness += part / seg.cable.vf
         start += seg.length_m
-    return DelayPrediction(distance_m, 2.0 * distance_m / (C0_M_PER_S * t_nom), 0.0,
-                           t_nom, t_lo, t_hi)
+    # the average VF 2 d / (c0 t) as d / sum(l_j / VF_j): the same, and no 0/0 when a
+    # tiny distance's delay underflows to zero
+    return DelayPrediction(distance_m, distance_m / slowness, 0.0, t_nom, t_lo, t_hi)
 
 
 # ---------------------------------------------------------------- both ends

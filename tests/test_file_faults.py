@@ -21,6 +21,8 @@ from pathlib import Path
 
 import pytest
 from filefaults import FAULTS, GOOD, GOOD_CATALOG, GOOD_PREFS, UNREADABLE, damage
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 from cable_catalog.loader import CatalogWriteError, append_user_cable, load_catalog
 from tui.cli import main
@@ -232,3 +234,37 @@ def test_good_samples_are_good():
     for which in ("catalog", "prefs"):
         _start_with_good(which)
         assert _problems(which) == ()
+
+
+# ------------------------------------------------------- what is written reads back
+@settings(max_examples=200, deadline=None)
+@given(st.text(max_size=40), st.text(max_size=40))
+def test_any_text_saved_in_a_cable_reads_back(description, notes):
+    # a description pasted with control characters once made the whole file unreadable
+    from hypothesis import assume
+
+    assume(description.strip())
+    path = user_catalog_path()
+    path.unlink(missing_ok=True)
+    append_user_cable(path, dict(NEW_CABLE, description=description, notes=notes))
+    cat = load_catalog(path)
+    assert cat.problems == ()
+    saved = cat.cables["basement-jumper"]
+    assert saved.description == description.strip() and saved.notes == notes
+
+
+@settings(max_examples=200, deadline=None)
+@given(st.dictionaries(st.text(max_size=10), st.text(max_size=20) | st.integers(), max_size=4),
+       st.text(min_size=1, max_size=10).filter(lambda n: n not in ("units", "fraction",
+                                                                     "last_cable", "theme")))
+def test_any_preference_table_reads_back(table, name):
+    # module tables belong to the program's own modules; their keys and values may be any text
+    from tui.prefs import with_section
+
+    prefs = with_section(load_preferences(), name, **table) if table else load_preferences()
+    assert save_preferences(prefs) is None
+    again = load_preferences()
+    assert again.problems == ()
+    if table:
+        assert again.section(name) == table
+    preferences_path().unlink(missing_ok=True)

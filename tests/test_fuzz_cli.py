@@ -56,13 +56,45 @@ BASELINES: dict[str, list[str]] = {
     "simulate": ["simulate", "--run", "10 m:rg58, 20 m:rg213", "--load", "open", "--rise-time",
                  "1 ns", "--points", "2048"],
     "safety": ["safety", "--tag", "power"],
+    "locate distance": ["locate", "--distance", "24 m", "--cable", "rg58", "--tolerance", "3 %"],
+    "locate run distance": ["locate", "--distance", "20 m", "--run",
+                            "1.5 m:rg58, 28 m:hardline-50-half, 2 m:rg58"],
+    "calibrate save": ["calibrate", "--length", "10 m", "--delay", "101 ns", "--save-as",
+                       "roof-feeder", "--description", "roof feeder", "--z0", "50 ohm"],
+    "locate save": ["locate", "245 ns", "--cable", "rg58", "--save", "--label", "feeder 2",
+                    "--note", "roof"],
+    "log new": ["log", "new", "Marsh Lane relay", "--note", "roof feeders", "--date",
+                "2026-05-04"],
+    "log add": ["log", "add", "--kind", "locate", "--label", "feeder 2", "--input",
+                '{"delay": "245 ns"}', "--result", '{"distance_m": 24.2}', "--note", "wet",
+                "--cable", "rg58", "--tag", "pass"],
+    "log list": ["log", "list", "--job", "1", "--tag", "pass", "--label", "feeder", "--kind",
+                 "locate"],
+    "log show": ["log", "show", "1"],
+    "log edit": ["log", "edit", "1", "--label", "feeder 3", "--note", "dry", "--cable", "rg213"],
+    "log edit-job": ["log", "edit-job", "1", "--site", "Marsh Lane", "--note", "n", "--date",
+                     "2026-05-05"],
+    "log tag": ["log", "tag", "1", "recheck"],
+    "log delete": ["log", "delete", "1"],
+    "log export": ["log", "export", "--job", "1", "--format", "md"],
+    "log check": ["log", "check"],
     "trace": ["trace", str(Path(__file__).resolve().parents[1] / "tui" / "demo"
                            / "kestrel-ridge-feeder.csv"), "--vf", "0.66", "--z0", "50 ohm",
               "--time-unit", "ns"],
 }
 
+# Positional values fuzzed too (their places in the baseline), beside every value option.
+POSITIONALS: dict[str, tuple[int, ...]] = {
+    "locate": (1,), "locate run": (1,), "cables show": (2,), "log new": (2,), "log show": (2,),
+    "log edit": (2,), "log edit-job": (2,), "log tag": (2, 3), "log delete": (2,),
+}
+# Commands run once before a baseline's fuzz (a job and an entry for the log commands).
+WITH_ENTRY = [["log", "new", "Marsh Lane relay"],
+              ["locate", "245 ns", "--cable", "rg58", "--save", "--label", "feeder 1"]]
+SETUP = {name: WITH_ENTRY for name in BASELINES if name.startswith("log ") or name == "locate save"}
+SETUP["log new"] = []
 # Options never fuzzed: they name files to write or read, or a job database.
-NOT_FUZZED = {"--out", "--db", "--help", "-h", "--save", "--job", "--label", "--note"}
+NOT_FUZZED = {"--out", "--db", "--help", "-h"}
 
 
 def _subparser(parser: argparse.ArgumentParser, words: list[str]) -> argparse.ArgumentParser:
@@ -93,6 +125,12 @@ def _present(name: str) -> bool:
     return any(BASELINES[name][0] in a.choices for a in commands)
 
 
+def _has_json(name: str) -> bool:
+    words = [w for w in BASELINES[name][:2] if not w.startswith("-")]
+    parser = _subparser(build_parser(), words)
+    return any("--json" in a.option_strings for a in parser._actions)
+
+
 def _run(argv: list[str]) -> tuple[int, str, str]:
     out, err = io.StringIO(), io.StringIO()
     # a numeric warning (overflow, invalid value) would be a second line on stderr: a fault
@@ -109,21 +147,33 @@ def _check(argv: list[str]) -> None:
     code, out, err = _run(argv)
     assert code in (0, 2), f"exit {code} for {argv!r}: {err}"
     if code == 2:
-        assert out == "", f"stdout on refusal for {argv!r}"
         refusals = [ln for ln in err.splitlines() if not ln.startswith("halftrip: caution")
                     and not ln.startswith(("halftrip: catalog", "halftrip: preferences"))]
         assert len(refusals) == 1, f"not one line for {argv!r}: {err!r}"
+        # --save shows the result before it is refused by the job log
+        if not ("--save" in argv and "not saved" in refusals[0]):
+            assert out == "", f"stdout on refusal for {argv!r}"
     elif "--json" in argv:
         assert isinstance(json.loads(out), dict)
+    if "--save-as" in argv:  # whatever was saved, the user's file still reads cleanly
+        from cable_catalog.loader import load_catalog
+        from tui.paths import user_catalog_path
+
+        assert load_catalog(user_catalog_path()).problems == (), argv
+        user_catalog_path().unlink(missing_ok=True)  # each example starts without it
 
 
 @pytest.mark.parametrize("name", sorted(BASELINES))
 def test_baseline_is_valid(name):
     if not _present(name):
         pytest.skip(f"command {name!r} not in this build")
-    code, out, err = _run(BASELINES[name] + ["--json"])
+    for argv in SETUP.get(name, []):
+        assert _run(argv)[0] == 0, argv
+    json_flag = ["--json"] if _has_json(name) else []  # log export writes a report instead
+    code, out, err = _run(BASELINES[name] + json_flag)
     assert code == 0, err
-    json.loads(out)
+    if json_flag:
+        json.loads(out)
 
 
 @pytest.mark.parametrize("name", sorted(BASELINES))
@@ -132,18 +182,23 @@ def test_fuzzed_options(name):
         pytest.skip(f"command {name!r} not in this build")
     base = BASELINES[name]
     words = [w for w in base[:2] if not w.startswith("-")]
-    options = _value_options(_subparser(build_parser(), words))
+    targets = _value_options(_subparser(build_parser(), words)) + list(POSITIONALS.get(name, ()))
+    for argv in SETUP.get(name, []):
+        assert _run(argv)[0] == 0, argv
+    has_json = _has_json(name)
 
     @settings(profile())
-    @given(st.sampled_from(options), FUZZ_VALUES, st.booleans())
-    def fuzz(option, value, as_json):
+    @given(st.sampled_from(targets), FUZZ_VALUES, st.booleans())
+    def fuzz(target, value, as_json):
         argv = list(base)
-        if option in argv:
-            i = argv.index(option)
+        if isinstance(target, int):  # a positional value
+            argv[target] = value
+        elif target in argv:
+            i = argv.index(target)
             argv[i + 1] = value
         else:
-            argv += [option, value]
-        if as_json:
+            argv += [target, value]
+        if as_json and has_json:
             argv.append("--json")
         _check(argv)
 
@@ -158,6 +213,13 @@ FOUND = [
     # a cut tolerance longer than any arm overflowed to an infinite phase spread
     ["harness", "--antennas", "4", "--antenna-z", "50 ohm", "--feed-z", "50 ohm",
      "--frequency", "146 MHz", "--cut-tolerance", "1e300 m"],
+    # an id beyond SQLite's 64-bit integers raised OverflowError in the look-up
+    ["log", "export", "--job", "1" * 40, "--format", "md"],
+]
+# Found by the terminal interface's fuzz, through the same core: each was exit 1.
+FOUND_OK = [
+    # a subnormal distance's delay underflowed to 0: the run's average VF was 0/0
+    ["locate", "--distance", "1e-320 m", "--run", "1.5 m:rg58, 28 m:hardline-50-half, 2 m:rg58"],
 ]
 
 
@@ -166,3 +228,10 @@ def test_found_by_fuzzing_is_refused_in_one_line(argv):
     code, out, err = _run(argv)
     assert code == 2 and out == "" and len(err.strip().splitlines()) == 1, err
     _check(argv + ["--json"])
+
+
+@pytest.mark.parametrize("argv", FOUND_OK, ids=lambda a: " ".join(a)[:40])
+def test_found_by_fuzzing_now_gives_a_result(argv):
+    code, out, err = _run(argv + ["--json"])
+    assert code == 0, err
+    assert json.loads(out)["distance_m"] == 1e-320

@@ -166,8 +166,11 @@ def to_toml(prefs: Preferences) -> str:
 
 
 def _key(name: str) -> str:
-    bare = name.replace("-", "").replace("_", "").isalnum()
-    return name if bare else '"' + name.replace("\\", "\\\\").replace('"', '\\"') + '"'
+    from cable_catalog.loader import _toml_value
+
+    # TOML bare keys are ASCII letters, digits, - and _ only ("café" must be quoted)
+    bare = name.isascii() and name.replace("-", "").replace("_", "").isalnum()
+    return name if bare else _toml_value(name)
 
 
 def _inline(value: object, value_text) -> str:
@@ -195,7 +198,7 @@ def save_preferences(prefs: Preferences, path: Path | None = None) -> str | None
     try:
         path.parent.mkdir(parents=True, exist_ok=True)
         atomic_write_text(path, to_toml(prefs))
-    except OSError as exc:
+    except (OSError, UnicodeError) as exc:  # UnicodeError: text no file can hold
         return f"cannot write {path} ({exc})"
     return None
 

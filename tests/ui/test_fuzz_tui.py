@@ -38,7 +38,6 @@ from tui.app import create_app
 from tui.panels import discover
 from tui.widgets.field import Field
 from tui.widgets.form import LiveForm
-from tui.widgets.result_view import FRESH_TITLE
 
 PANELS = [spec.name for spec in discover()]
 SETTLE_S = 10.0  # a field that shows neither result nor error after this long fails
@@ -55,10 +54,18 @@ def _text(widget) -> str:
     return str(widget.render())
 
 
+def form_of(widget) -> LiveForm | None:
+    return next((a for a in widget.ancestors if isinstance(a, LiveForm)), None)
+
+
 def outcome(widget: Input) -> str | None:
     """What the field's form shows now: "result", "field error", "form error",
-    "no form" (an input outside a live form), or None (nothing yet)."""
-    form = next((a for a in widget.ancestors if isinstance(a, LiveForm)), None)
+    "no form" (an input outside a live form), or None (nothing yet).
+
+    Read through what every live form has (its fields' error lines, its
+    ``last_error`` and its result view's waiting and out-of-date states), so a
+    form with another kind of result view (a trace plot) is read the same way."""
+    form = form_of(widget)
     if form is None:
         return "no form"
     errors = {f.field_name: _text(f.query_one(".field-error")).strip() for f in form.query(Field)}
@@ -68,13 +75,17 @@ def outcome(widget: Input) -> str | None:
     if errors:
         return "field error"
     view = form.result_view()
-    if view.border_title == FRESH_TITLE:
-        return "result"
-    if view.is_stale and view.border_subtitle:
-        return "form error"
-    if view.has_class("-waiting") and _text(view).startswith("nothing yet"):
-        return "form error"
-    return None
+    waiting, stale = view.has_class("-waiting"), view.is_stale
+    if form.last_error is not None:
+        return "form error" if waiting or stale else None
+    return "result" if not (waiting or stale) else None
+
+
+async def computed(form: LiveForm) -> None:
+    """Wait for the form's worker threads (a THREADED form computes off the UI thread;
+    a worker's result is handed to the UI before the worker ends)."""
+    mine = [w for w in form.app.workers if w.node is form]
+    await asyncio.gather(*(w.wait() for w in mine), return_exceptions=True)
 
 
 def reveal(widget) -> None:
@@ -202,6 +213,9 @@ class Host:
                 widget.value = text
         for index, _value, _typed in edits:
             await handled(inputs[index])
+            form = form_of(inputs[index])
+            if form is not None:
+                await asyncio.wait_for(computed(form), SETTLE_S)
         if drawn:
             await pilot.pause(0)  # every widget's queue drained and the screen drawn
         deadline = self.loop.time() + SETTLE_S

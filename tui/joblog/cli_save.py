@@ -51,6 +51,10 @@ def command_kind(args) -> str:
     return name[0] if isinstance(name, tuple) else name
 
 
+#: The largest integer SQLite stores (a signed 64-bit integer).
+SQLITE_MAX_INT = 2**63 - 1
+
+
 def parse_id(text: str | None, field: str = "--job", what: str = "a job") -> int | None:
     """A job or entry id typed on the command line (None when not given)."""
     if text is None:
@@ -59,7 +63,7 @@ def parse_id(text: str | None, field: str = "--job", what: str = "a job") -> int
         value = int(str(text).strip())
     except ValueError:
         value = 0
-    if value < 1:
+    if not 1 <= value <= SQLITE_MAX_INT:  # SQLite cannot even look a larger one up
         raise InputError(field, f"{text!r} is not {what} id (a whole number from 1)", "3")
     return value
 
