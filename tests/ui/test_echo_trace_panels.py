@@ -5,20 +5,14 @@ from __future__ import annotations
 
 from pathlib import Path
 
-from uihelp import started, type_into, wait_for
+from uihelp import cli_text, started, type_into, wait_for
 
 from tui.app import create_app
-from tui.cli import main as cli
 from tui.widgets.result_view import ResultView
 from tui.widgets.trace_plot import TracePlot
 
 DEMO = Path(__file__).resolve().parents[2] / "tui" / "demo"
 
-
-def cli_text(capsys, *argv) -> str:
-    capsys.readouterr()
-    assert cli(list(argv)) == 0
-    return capsys.readouterr().out.rstrip("\n")
 
 
 async def test_a_load_is_the_cli_output(capsys):

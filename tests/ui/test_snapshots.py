@@ -14,6 +14,15 @@ from tui.widgets.form import LiveForm
 TRACE_FILE = "tui/demo/kestrel-ridge-feeder.csv"  # relative: the same on every machine
 
 
+def _state(app) -> str:
+    from tui.widgets.modes import Modes
+
+    forms = [f for f in app.query(LiveForm) if f.is_on_screen]
+    return (f"focused={app.focused} modal={app.screen.is_modal} core={app.core_ready} "
+            f"modes={[(len(m.query_one('ContentSwitcher').children), len(m.modes)) for m in app.query(Modes)]} "
+            f"forms={[(type(f).__name__, f.last_result is not None, f.last_error) for f in forms]}")
+
+
 def _settled(app) -> bool:
     """Every form shown has its result, every mode is mounted, the cursor is placed."""
     from tui.widgets.modes import Modes
@@ -37,7 +46,10 @@ def before(*keys: str, trace_file: bool = False):
             pilot.app.query_one("#trace-file", Input).value = TRACE_FILE
         for key in keys:
             await pilot.press(key)
-        await wait_for(pilot, lambda: _settled(pilot.app), timeout=60)
+        try:
+            await wait_for(pilot, lambda: _settled(pilot.app), timeout=60)
+        except AssertionError:
+            raise AssertionError(_state(pilot.app)) from None
         await pilot.app.workers.wait_for_complete()
         await pilot.pause(0.3)
         await wait_for(pilot, lambda: _settled(pilot.app), timeout=60)

@@ -39,3 +39,19 @@ _KEYS = {" ": "space", "/": "slash", ".": "full_stop", ",": "comma", ":": "colon
 
 def _key(ch: str) -> str:
     return _KEYS.get(ch, ch)
+
+
+def cli_text(capsys, *argv) -> str:
+    """What ``halftrip ARGV`` prints (human lines), for comparing with a panel."""
+    from tui.cli import main
+
+    capsys.readouterr()
+    assert main(list(argv)) == 0
+    return capsys.readouterr().out.rstrip("\n")
+
+
+def cli_json(capsys, *argv) -> dict:
+    """The one JSON object ``halftrip ARGV --json`` prints."""
+    import json
+
+    return json.loads(cli_text(capsys, *argv, "--json"))
