@@ -55,6 +55,9 @@ class HalftripApp(App[int]):
     CSS_PATH = "halftrip.tcss"
     TITLE = "halftrip"
     ENABLE_COMMAND_PALETTE = True
+    #: No automatic focus: the cursor goes to the first panel's first field once
+    #: the panel is mounted (after the first frame), not to the panel bar first.
+    AUTO_FOCUS = None
     BINDINGS = APP_BINDINGS
     PANELS: ClassVar[list[PanelSpec]] = []
 

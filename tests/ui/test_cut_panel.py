@@ -4,18 +4,11 @@ inputs, plus values worked by hand from the SI definition of c0."""
 from __future__ import annotations
 
 from textual.widgets import Static
-from uihelp import started, type_into
+from uihelp import cli_text, started, type_into
 
 from calc.constants import C0_M_PER_S
 from tui.app import create_app
-from tui.cli import main as cli
 from tui.widgets.result_view import ResultView
-
-
-def cli_text(capsys, *argv) -> str:
-    capsys.readouterr()
-    assert cli(list(argv)) == 0
-    return capsys.readouterr().out.rstrip("\n")
 
 
 async def run_mode(mode_key: str, form: str, inputs: dict[str, str]) -> tuple[str, object]:

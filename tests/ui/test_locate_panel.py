@@ -3,22 +3,13 @@
 
 from __future__ import annotations
 
-import json
-
 from textual.widgets import Static
-from uihelp import started, type_into
+from uihelp import cli_json, started, type_into
 
 from calc.constants import C0_M_PER_S
 from tui import fmt
 from tui.app import create_app
-from tui.cli import main as cli
 from tui.widgets.result_view import ResultView
-
-
-def cli_json(capsys, *argv) -> dict:
-    capsys.readouterr()
-    assert cli([*argv, "--json"]) == 0
-    return json.loads(capsys.readouterr().out)
 
 
 def shown(app, form_id: str) -> str:

@@ -82,3 +82,12 @@ async def paste_into(pilot, input_id: str, text: str) -> None:
     field.focus()
     field.value = text
     await pilot.pause()
+
+
+def cli_text(capsys, *argv) -> str:
+    """What ``halftrip ARGV`` prints (human lines), for comparing with a panel."""
+    from tui.cli import main
+
+    capsys.readouterr()
+    assert main(list(argv)) == 0
+    return capsys.readouterr().out.rstrip("\n")

@@ -1,40 +1,49 @@
-"""The terminal interface's panels, one module per part of the job.
+"""The terminal interface's panels, one module (or package) per part of the job.
 
 Contract (shared by everyone who adds a panel; the app finds panels by
 listing this package, so adding a panel is adding a module):
 
-* ``tui/panels/<name>.py`` defines
+* ``tui/panels/<name>.py`` (or ``<name>/__init__.py``) defines
 
   - ``KEY``: one lower-case letter that opens the panel when the cursor is
-    not in a text field (``"l"``);
+    not in a text field (``"l"``). Taken by the app: ``u`` (units), ``d``
+    (theme); by panels: l x e t c j s;
   - ``ORDER``: its place in the panel bar, 1 to 9. The panel's function key,
     which opens it from anywhere (also while typing), is ``F<ORDER + 1>``
-    (F1 is help);
+    (F1 is help, F9 the unit switch);
   - ``TITLE``: its name on screen, one plain word of the trade (``"Locate"``);
   - ``DESCRIPTION``: one line for the help screen and the command palette;
-  - ``Panel``: a Textual widget class, built with no arguments, that
+  - ``Panel``: a Textual widget class, built with ``Panel(id=name)``, that
     composes the panel.
 
   Optional:
 
+  - ``DEMO``: ``{field name: text}`` that ``halftrip demo`` starts the
+    panel's fields with (an invented scenario of our own);
+  - ``LOG_KINDS``: job-log entry kinds the panel reopens (see
+    :mod:`tui.panels.log.saving`);
   - ``on_app_start(app)``: called once after the first frame (for a notice
-    to show on first start, for example); keep it quick.
+    to show on first start, for example); keep it quick;
+  - ``Panel.action_mode(index)``: the panel has modes (digits pick them,
+    from the panel bar too); :class:`tui.widgets.modes.Modes` provides them.
 
 * The module is imported at start-up, before the first frame: keep its top
   level light (Textual only). Import the core, numpy and the catalog inside
-  methods, or in a worker.
+  methods, or in a worker; name a mode's form as ``"module:Class"`` so it is
+  imported when the mode is built. Panels are mounted when first opened (the
+  first one right after the first frame).
 * A panel computes nothing itself: it parses its fields with ``calc.parse``,
   calls the core, and formats with ``tui.fmt``, exactly as the CLI command
   for the same job does. :class:`tui.widgets.form.LiveForm` does the field
-  parsing, the inline errors and the stale marking for you.
-* Lengths are shown in the user's unit system: read ``self.app.prefs.units``
-  and ``.fraction`` when formatting, and redraw in
-  ``on_halftrip_app_units_changed`` (the app posts
-  :class:`tui.app.HalftripApp.UnitsChanged` to every mounted panel).
-  ``LiveForm`` does this for you too.
+  parsing, the inline errors, the stale marking and the unit switch;
+  :class:`tui.widgets.command_form.CommandForm` makes a form whose fields are
+  a CLI command's options and whose result is what the command prints.
+* Lengths are shown in the user's unit system, ``self.app.unit_system``
+  (``("metric" | "imperial", fraction)``), a reactive the forms watch.
 * A calculation panel composes a :class:`tui.widgets.warning_line.WarningLine`
-  (id ``warning-line``) near its top and calls ``set_hazards(tags)`` with the
-  hazard tags of the cables in use, so the cautions appear where they apply.
+  (id ``warning-line``) at its top; forms set it from ``hazards(result)``
+  (the hazard tags of the cables in use), so the cautions appear where they
+  apply, and ``!`` marks the line possibly live.
 * Module tables in the preferences file belong to their module:
   ``self.app.prefs.section(name)`` reads one, ``self.app.update_section(name,
   key=value)`` writes it.

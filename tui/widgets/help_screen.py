@@ -42,10 +42,15 @@ def key_table(app) -> list[tuple[str, list[tuple[str, str]]]]:
     """(section title, [(keys, what they do)]) for the help screen."""
     sections: list[tuple[str, list[tuple[str, str]]]] = []
     anywhere, actions = [], set()
-    for b in reversed(_bindings_of(type(app))):  # ours first, Textual's defaults after
-        if b.description and b.action not in actions:
-            actions.add(b.action)
-            anywhere.append((_keys_text(app, b), b.description))
+    mro = type(app).__mro__
+    ours = [c for c in reversed(mro) if c.__module__.startswith("tui.")]
+    textual_own = [c for c in mro if not c.__module__.startswith("tui.")]
+    for cls in ours + textual_own:  # ours in the order written, Textual's defaults after
+        for b in cls.__dict__.get("BINDINGS", []):
+            b = b if isinstance(b, Binding) else Binding(*b)
+            if b.description and b.action not in actions:
+                actions.add(b.action)
+                anywhere.append((_keys_text(app, b), b.description))
     sections.append(("Anywhere (letters only when the cursor is not in a field)", anywhere))
     sections.append(("Moving around", MOVING_AROUND))
     seen: set[type] = {type(app)}

@@ -6,7 +6,9 @@ from textual.widgets import DataTable
 
 from tui import fmt
 
-COLUMNS = ("id", "kind", "Z0", "VF", "+/-", "!", "description")
+#: (heading, width): fixed widths fit 80 columns and keep the layout steady.
+COLUMNS = (("id", 18), ("kind", 12), ("Z0", 4), ("VF", 5), ("+/-", 3), ("!", 1),
+           ("description", 60))
 
 
 def matches(cable, words: list[str]) -> bool:
@@ -23,7 +25,8 @@ class CableTable(DataTable):
         super().__init__(id=id, cursor_type="row", zebra_stripes=False)
 
     def on_mount(self) -> None:
-        self.add_columns(*COLUMNS)
+        for heading, width in COLUMNS:
+            self.add_column(heading, width=width)
 
     def fill(self, catalog, filter_text: str) -> None:
         keep = self.selected_key()
