@@ -65,6 +65,9 @@ MAX_AUTO_POINTS = 1 << 18
 #: Largest FFT: 2**21 samples keep each complex spectrum array at 16 MB, so a
 #: prediction stays within a few hundred MB at the very most.
 MAX_FFT = 1 << 21
+#: Complex numbers in one block of the cascade's line factors (32 MB): memory stays
+#: bounded however many segments a run has.
+CASCADE_BLOCK = 1 << 21
 #: Arrivals smaller than this (fraction of the incident step) are not listed.
 ARRIVAL_CUTOFF = 1e-3
 MAX_ARRIVALS = 64
@@ -564,18 +567,22 @@ def _groups(segments, junctions) -> list[tuple[np.ndarray, object]]:
 def _cascade(grid: _Grid, segments, junctions, load_factor: _Rational, source_z: float):
     """Gamma seen by the instrument, referenced to its source impedance."""
     groups = _groups(segments, junctions)
-    terms = np.array([g[0] for g in groups])
-    # exp(-2 gamma l) for every group. Two real products, not one complex one: numpy's
-    # complex matmul (BLAS zgemm) can leave the CPU slow at every complex exp after it
-    exponent = np.empty((len(groups), grid.s.size), dtype=complex)
-    exponent.real = -(terms @ grid.basis.real)
-    exponent.imag = -(terms @ grid.basis.imag)
-    factors = np.exp(exponent)
     gamma = load_factor(grid.s)
-    for (_, j), factor in zip(groups, factors, strict=True):
-        gamma = factor * gamma
-        if j is not None:
-            gamma = j.reflect(gamma, grid.s)
+    # exp(-2 gamma l) for a block of groups at a time: all of them at once is groups x
+    # points complex numbers (500 segments at 2**21 points: 16 GB)
+    block = max(1, CASCADE_BLOCK // max(grid.s.size, 1))
+    for first in range(0, len(groups), block):
+        chunk = groups[first:first + block]
+        terms = np.array([g[0] for g in chunk])
+        # Two real products, not one complex one: numpy's complex matmul (BLAS zgemm) can
+        # leave the CPU slow at every complex exp after it
+        exponent = np.empty((len(chunk), grid.s.size), dtype=complex)
+        exponent.real = -(terms @ grid.basis.real)
+        exponent.imag = -(terms @ grid.basis.imag)
+        for (_, j), factor in zip(chunk, np.exp(exponent), strict=True):
+            gamma = factor * gamma
+            if j is not None:
+                gamma = j.reflect(gamma, grid.s)
     z0 = segments[0].z0_ohm
     r = (z0 - source_z) / (z0 + source_z)
     if r == 0.0:

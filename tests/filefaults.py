@@ -1,14 +1,18 @@
 """Damaged user files for the file-fault tests (imported as a plain module).
 
-Each fault turns a good file into what a person might find after a crash, a
-full disk, a bad copy or a newer halftrip: :func:`damage` applies one and
-returns a :class:`Snapshot` to check later that nothing touched it.
+Each fault turns a good file (the user catalog, the preferences, the job
+database) into what a person might find after a crash, a full disk, a bad
+copy or a newer halftrip: :func:`damage` applies one and returns a
+:class:`Snapshot` to check later that nothing touched it.
 """
 
 from __future__ import annotations
 
 import pathlib
+import struct
+import tempfile
 from dataclasses import dataclass
+from functools import lru_cache
 from pathlib import Path
 
 #: A good user catalog (ends with a string value, so cutting 5 bytes breaks it).
@@ -25,10 +29,41 @@ NEWER = {
     "prefs": b"screen_reader = true\n" + GOOD_PREFS + b"\n[plots]\nstyle = \"dots\"\n",
 }
 GOOD = {"catalog": GOOD_CATALOG, "prefs": GOOD_PREFS}
+FILES = ("catalog", "prefs", "db")
 
 #: Faults after which the file cannot be read at all (so it must never be written over).
 UNREADABLE = ("corrupt", "truncated", "binary", "directory", "no-permission")
 FAULTS = (*UNREADABLE, "empty", "newer")
+
+
+@lru_cache(maxsize=1)
+def good_db() -> bytes:
+    """A job log with one job and one entry, made by the program itself."""
+    from tui.joblog.db import open_log
+
+    with tempfile.TemporaryDirectory() as tmp:
+        path = Path(tmp) / "jobs.sqlite3"
+        with open_log(path) as log:
+            job = log.new_job("Marsh Lane relay", date_text="2026-05-04")
+            log.add_entry(job.id, "locate", {"delay": "245 ns"}, {"distance_m": 24.24},
+                          label="feeder 1")
+        return path.read_bytes()
+
+
+def good(which: str) -> bytes:
+    return good_db() if which == "db" else GOOD[which]
+
+
+def newer(which: str) -> bytes:
+    """What a newer halftrip might leave: keys this version does not know, or (the job
+    log) a schema version above this program's (SQLite header bytes 60-63)."""
+    if which != "db":
+        return NEWER[which]
+    from tui.joblog.schema import CURRENT_VERSION
+
+    data = bytearray(good_db())
+    data[60:64] = struct.pack(">I", CURRENT_VERSION + 1)
+    return bytes(data)
 
 
 @dataclass(frozen=True)
@@ -46,19 +81,21 @@ class Snapshot:
 
 
 def damage(which: str, fault: str, path: Path, monkeypatch) -> Snapshot:
-    """Put ``which`` ("catalog" or "prefs") at ``path`` with ``fault`` applied."""
+    """Put ``which`` (one of :data:`FILES`) at ``path`` with ``fault`` applied."""
     path.parent.mkdir(parents=True, exist_ok=True)
-    good = GOOD[which]
+    whole = good(which)
     if fault == "directory":  # unreadable: tests run as root, so chmod 000 would not stop us
         path.mkdir()
         return Snapshot(path, None)
     content = {
-        "corrupt": b"this line is not = = TOML\n" + good,
-        "truncated": good[:-5],
+        "corrupt": b"this line is not = = TOML\n" + whole,
+        # the TOML files end in a string value, so 5 bytes off leaves it open; half a
+        # database loses pages
+        "truncated": whole[:len(whole) // 2] if which == "db" else whole[:-5],
         "binary": b"\xff\xfe\x00\x81 not text at all",
         "empty": b"",
-        "newer": NEWER[which],
-        "no-permission": good,
+        "newer": newer(which),
+        "no-permission": whole,
     }[fault]
     path.write_bytes(content)
     if fault == "no-permission":

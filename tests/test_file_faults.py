@@ -1,6 +1,6 @@
 """Damaged user files (issue 10): a corrupt, truncated, empty, unreadable or
-newer-version user catalog or preferences file is reported with its path,
-left byte for byte as it was, and the program still runs. Writes of both
+newer-version user catalog, preferences file or job database is reported
+with its path, left byte for byte as it was, and the program still runs. Writes of both
 files are atomic: a temporary file in the same directory, then a rename, so a
 crash at any point leaves the old file or the new one, never half of one.
 
@@ -20,13 +20,13 @@ from contextlib import redirect_stderr, redirect_stdout
 from pathlib import Path
 
 import pytest
-from filefaults import FAULTS, GOOD, GOOD_CATALOG, GOOD_PREFS, UNREADABLE, damage
+from filefaults import FAULTS, FILES, GOOD, GOOD_CATALOG, GOOD_PREFS, UNREADABLE, damage
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
 from cable_catalog.loader import CatalogWriteError, append_user_cable, load_catalog
 from tui.cli import main
-from tui.paths import preferences_path, user_catalog_path
+from tui.paths import job_db_path, preferences_path, user_catalog_path
 from tui.prefs import changed, load_preferences, save_preferences
 
 ROOT = Path(__file__).resolve().parents[1]
@@ -36,13 +36,21 @@ NEW_CABLE = {"id": "basement-jumper", "description": "jumper measured in the bas
 
 
 def _path(which: str) -> Path:
-    return user_catalog_path() if which == "catalog" else preferences_path()
+    return {"catalog": user_catalog_path, "prefs": preferences_path, "db": job_db_path}[which]()
 
 
 def _problems(which: str) -> tuple[str, ...]:
     if which == "catalog":
         return load_catalog(user_catalog_path()).problems
-    return load_preferences().problems
+    if which == "prefs":
+        return load_preferences().problems
+    from tui.joblog.db import JobLogError, open_log
+
+    try:
+        open_log(job_db_path(), create=False).close()
+    except JobLogError as exc:
+        return (str(exc),)
+    return ()
 
 
 def _cli(*argv: str) -> tuple[int, str, str]:
@@ -56,7 +64,7 @@ def _cli(*argv: str) -> tuple[int, str, str]:
 
 
 @pytest.mark.parametrize("fault", FAULTS)
-@pytest.mark.parametrize("which", ["catalog", "prefs"])
+@pytest.mark.parametrize("which", FILES)
 def test_fault_is_reported_with_its_path_and_left_alone(which, fault, monkeypatch):
     snap = damage(which, fault, _path(which), monkeypatch)
     problems = _problems(which)
@@ -88,6 +96,23 @@ def test_cli_runs_on_default_preferences_and_names_the_file(fault, monkeypatch):
     assert f"halftrip: preferences: {snap.path}" in err
     if fault == "newer":  # what this version knows of a newer file is still used
         assert " ft " in out
+    assert snap.unchanged()
+
+
+@pytest.mark.parametrize("fault", FAULTS)
+def test_cli_runs_beside_a_broken_job_log_and_names_it(fault, monkeypatch):
+    snap = damage("db", fault, job_db_path(), monkeypatch)
+    code, out, err = _cli("log", "list")
+    assert code == 2 and out == "" and str(snap.path) in err, err
+    assert len(err.strip().splitlines()) == 1, err
+    code, out, err = _cli("locate", "245 ns", "--vf", "0.66", "--json")  # needs no log
+    assert code == 0 and json.loads(out)["distance_m"] > 0, err
+    code, out, err = _cli("locate", "245 ns", "--vf", "0.66", "--save", "--json")
+    # the result is shown, the save refused in one line that names the file
+    assert code == 2 and json.loads(out)["distance_m"] > 0
+    assert len(err.strip().splitlines()) == 1 and str(snap.path) in err, err
+    code, out, err = _cli("log", "new", "Marsh Lane relay")
+    assert code == 2 and str(snap.path) in err, err
     assert snap.unchanged()
 
 

@@ -173,3 +173,101 @@ def test_a_measured_vf_below_the_floor_is_refused(catalog):
     with pytest.raises(InputError, match=f"below {VF_MIN:g}"):
         vf_from_stub(0.001, 1e6)
     _refused_in_one_line(["calibrate", "--length", "0.1 m", "--delay", "101 ns"], "below")
+
+
+# ----------------------------------------------------------- whole-run prediction
+def _mixed_run(catalog, n: int):
+    from calc.simulate import Segment
+
+    ids = ["rg58", "rg59", "rg213", "rg62"]  # 50, 75, 50, 93 ohm: every joint reflects
+    text = ", ".join(f"{1 + i % 4} m:{ids[i % 4]}" for i in range(n))
+    return [Segment.from_run_segment(s) for s in parse_run(text, catalog.get)]
+
+
+def test_a_long_run_is_predicted_in_bounded_memory(catalog, monkeypatch):
+    # 500 reflecting segments at 65,536 points. The cascade once built every segment's
+    # factor at once (segments x points complex numbers: 10 GB at the largest accepted
+    # size); it now works through blocks of calc.simulate.CASCADE_BLOCK numbers.
+    import numpy as np
+
+    from calc import simulate as sim
+    from calc.loads import parse_load
+
+    segments, load = _mixed_run(catalog, MAX_SEGMENTS), parse_load("open")
+    blocked = measured(sim.simulate, segments, load, n_points=65536, arrivals=False)
+    assert not isinstance(blocked.value, Exception), blocked.value
+    assert blocked.peak_bytes < 200 * MB and blocked.cpu_s < CPU_CEILING_S
+    # (the arrays of 2**15 complex points themselves, a few MB each, and two blocks of
+    # CASCADE_BLOCK numbers: 2 x 32 MB)
+    monkeypatch.setattr(sim, "CASCADE_BLOCK", 1 << 40)  # everything in one block, as before
+    whole = measured(sim.simulate, segments, load, n_points=65536, arrivals=False)
+    assert (blocked.value.level == whole.value.level).all()  # the same numbers exactly
+    assert whole.peak_bytes > 3 * blocked.peak_bytes  # what the blocks save
+    # the first joint, 1 m of RG-58 (50 ohm) into RG-59 (75 ohm): Gamma = (75 - 50) /
+    # (75 + 50) = 0.2 (Pozar, Microwave Engineering, ch. 2), seen from the round trip of
+    # 1 m at VF 0.66 (10.1 ns, SI c0) until the next joint's (30 ns later)
+    p = blocked.value
+    i = int(np.searchsorted(p.time_s, 2 * 1.0 / (0.66 * C0_M_PER_S) + 6 * p.rise_time_s))
+    assert p.level[i] == pytest.approx(0.2, abs=0.01)
+
+
+def test_too_many_points_are_refused(catalog):
+    from calc.simulate import MAX_POINTS
+
+    _refused_in_one_line(["simulate", "--run", "10 m:rg58", "--load", "open", "--points",
+                          str(MAX_POINTS + 1)], "--points", str(MAX_POINTS))
+
+
+# ------------------------------------------------------------------ trace files
+def _trace_csv(path, n: int) -> None:
+    import numpy as np
+
+    t = np.arange(n) * 10e-12 - 1e-9  # 10 ps steps from 1 ns before the edge
+    # the incident step to 0.5 at t = 0, the open's return to 1.0 half way, a little noise
+    level = 0.5 * (t > 0) + 0.5 * (t > n * 5e-12) + 0.002 * np.sin(t * 3.1e11)
+    np.savetxt(path, np.column_stack([t * 1e9, level]), delimiter=",", fmt="%.6f",
+               header="time_ns,level", comments="")
+
+
+def test_a_trace_is_read_within_its_memory_bound(tmp_path):
+    # peak memory of reading and analysing a trace is a few times the file's size
+    # (a stated bound in DEVELOPERS.md: 5x); the largest file read is 256 MB
+    from calc.events import analyse
+    from calc.trace_read import read_trace
+
+    path = tmp_path / "feeder.csv"
+    _trace_csv(path, 250_000)
+    data = path.read_bytes()
+
+    def job():
+        trace = read_trace(data, path.name, time_unit="ns")
+        return analyse(trace.x, trace.level)
+
+    m = measured(job)
+    assert not isinstance(m.value, Exception), m.value
+    assert m.value.events
+    assert m.peak_bytes < 5 * len(data) and m.cpu_s < CPU_CEILING_S
+
+
+def test_a_trace_file_over_the_limit_is_refused_unread(tmp_path):
+    from tui.commands.trace import MAX_FILE_BYTES
+
+    path = tmp_path / "huge.csv"
+    with open(path, "wb") as fh:  # sparse: takes no disk and no time
+        fh.truncate(MAX_FILE_BYTES + 1)
+    m = measured(_cli, "trace", str(path), "--vf", "0.66")
+    code, out, err = m.value
+    assert code == 2 and "at most 256 MB" in err and len(err.strip().splitlines()) == 1, err
+    assert m.peak_bytes < 5 * MB
+
+
+def test_devices_and_pipes_are_refused_not_read_forever(tmp_path):
+    import os
+
+    # /dev/zero reports size 0 and never ends (reading it filled memory until the
+    # process was killed); a pipe would block the read until something wrote to it
+    fifo = tmp_path / "pipe.csv"
+    os.mkfifo(fifo)
+    for name in ("/dev/zero", str(fifo)):
+        _refused_in_one_line(["trace", name, "--vf", "0.66"], "not a regular file")
+    _refused_in_one_line(["trace", str(tmp_path), "--vf", "0.66"], "is a directory")

@@ -199,6 +199,12 @@ class HalftripApp(App[int]):
         self.notify("Line marked possibly live" if line.possibly_live
                     else "Mark removed; the cable's own cautions still apply", timeout=3)
 
+    def notify(self, message: str, *, title: str = "", severity: str = "information",
+               timeout: float | None = None, markup: bool = False) -> None:
+        """Textual's notification, with markup off by default: messages carry file paths,
+        site names and typed text, and "[B-wing]" in a path must not be read as a style."""
+        super().notify(message, title=title, severity=severity, timeout=timeout, markup=markup)
+
     # ------------------------------------------------------------ preferences
     def change_prefs(self, sections: dict[str, dict] | None = None, **typed) -> None:
         """Change preferences and write just those to the file (see

@@ -1,6 +1,7 @@
 """The terminal interface with damaged user files (issue 10): it starts, says
-which file is wrong (its path, in a notification), works on the built-in
-catalog and default preferences, and leaves the file exactly as it was.
+which file is wrong (its path, in a notification, or for the job log on the
+Log panel), works on the built-in catalog and default preferences, and
+leaves the file exactly as it was.
 The CLI side and the atomic-write checks are in tests/test_file_faults.py."""
 
 from __future__ import annotations
@@ -8,12 +9,12 @@ from __future__ import annotations
 import os
 
 import pytest
-from filefaults import FAULTS, UNREADABLE, damage
-from textual.widgets import DataTable
+from filefaults import FAULTS, FILES, UNREADABLE, damage
+from textual.widgets import DataTable, Static
 from uihelp import started, wait_for
 
 from tui.app import create_app
-from tui.paths import preferences_path, user_catalog_path
+from tui.paths import job_db_path, preferences_path, user_catalog_path
 
 
 def _recording(app) -> list[str]:
@@ -36,16 +37,24 @@ async def _cables_listed(pilot) -> int:
     return table.row_count
 
 
+def _on_screen(app) -> str:
+    return "\n".join(str(w.render()) for w in app.screen.query(Static) if w.display)
+
+
 @pytest.mark.parametrize("fault", FAULTS)
-@pytest.mark.parametrize("which", ["catalog", "prefs"])
+@pytest.mark.parametrize("which", FILES)
 async def test_app_starts_names_the_file_and_leaves_it(which, fault, monkeypatch):
-    path = user_catalog_path() if which == "catalog" else preferences_path()
+    path = {"catalog": user_catalog_path, "prefs": preferences_path, "db": job_db_path}[which]()
     snap = damage(which, fault, path, monkeypatch)
     app = create_app()
     shown = _recording(app)
     async with app.run_test(size=(80, 24)) as pilot:
         await started(pilot)
-        await wait_for(pilot, lambda: any(str(path) in s for s in shown))
+        if which == "db":  # the Log panel says what is wrong with the job log
+            await app.action_open_panel("log")
+            await wait_for(pilot, lambda: str(path) in _on_screen(app))
+        else:
+            await wait_for(pilot, lambda: any(str(path) in s for s in shown))
         assert await _cables_listed(pilot) >= 10  # the built-in catalog is all there
         assert app.return_code is None
     assert snap.unchanged()
@@ -113,3 +122,17 @@ async def _save_new_cable(pilot) -> None:
     await pilot.press("ctrl+s")
     await pilot.pause()
     assert isinstance(pilot.app.screen, CableEditor)  # still open: nothing was saved
+
+
+async def test_a_path_with_brackets_is_shown_as_it_is(tmp_path, monkeypatch):
+    # notifications carry paths, site names and typed text: read as markup, a directory
+    # "[B-wing]" vanished from the path shown ("/tmp//data")
+    data = tmp_path / "site [B-wing]" / "data"
+    monkeypatch.setenv("HALFTRIP_DATA_DIR", str(data))
+    snap = damage("catalog", "corrupt", user_catalog_path(), monkeypatch)
+    app = create_app()
+    async with app.run_test(size=(80, 24), notifications=True) as pilot:
+        await started(pilot)
+        await wait_for(pilot, lambda: any(str(snap.path) in str(t.render())
+                                          for t in app.screen.query("Toast")))
+    assert snap.unchanged()

@@ -135,11 +135,20 @@ def _say(text: str) -> None:
     print(f"halftrip: {text}", file=sys.stderr)
 
 
+def _no_constant(name: str):
+    raise ValueError(f"{name} is not a number JSON allows")
+
+
 def _json_object(text: str, field: str) -> dict:
     try:
-        value = json.loads(text)
+        value = json.loads(text, parse_constant=_no_constant)
     except json.JSONDecodeError as exc:
         raise InputError(field, f"is not valid JSON ({exc.msg} at character {exc.pos})",
+                         '{"delay": "245 ns"}') from None
+    except RecursionError:
+        raise InputError(field, "is nested too deeply", '{"delay": "245 ns"}') from None
+    except ValueError as exc:  # NaN or Infinity, or an integer of thousands of digits
+        raise InputError(field, f"is not usable JSON ({str(exc).split(';')[0]})",
                          '{"delay": "245 ns"}') from None
     if not isinstance(value, dict):
         raise InputError(field, "must be a JSON object ({...})", '{"delay": "245 ns"}')

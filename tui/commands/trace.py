@@ -81,15 +81,29 @@ def add_arguments(parser) -> None:
 
 
 def _read_bytes(path_text: str) -> bytes:
+    import stat
+
     from calc.errors import InputError
 
     path = Path(path_text).expanduser()
+    limit = f"at most {MAX_FILE_BYTES // (1024 * 1024)} MB are read"
     try:
-        size = path.stat().st_size
-        if size > MAX_FILE_BYTES:
-            raise InputError(path_text, f"{size / 1e6:.0f} MB; at most "
-                             f"{MAX_FILE_BYTES // (1024 * 1024)} MB are read")
-        return path.read_bytes()
+        info = path.stat()
+        if stat.S_ISDIR(info.st_mode):
+            raise IsADirectoryError
+        if not stat.S_ISREG(info.st_mode):  # a pipe would block, /dev/zero never end
+            raise InputError(path_text, "is not a regular file (a device or a pipe)")
+        if info.st_size > MAX_FILE_BYTES:
+            raise InputError(path_text, f"{info.st_size / 1e6:.0f} MB; {limit}")
+        with path.open("rb") as fh:  # never more than the limit, even if it grows meanwhile
+            data = fh.read(MAX_FILE_BYTES + 1)
+        if len(data) > MAX_FILE_BYTES:
+            raise InputError(path_text, f"grew past the limit while being read; {limit}")
+        return data
+    except ValueError as exc:  # a NUL in the name (pasted); InputError is one too
+        if isinstance(exc, InputError):
+            raise
+        raise InputError(path_text, "is not a file name (it holds a NUL character)") from None
     except IsADirectoryError:
         raise InputError(path_text, "is a directory, not a trace file") from None
     except FileNotFoundError:

@@ -72,7 +72,7 @@ def _file_key(path: str) -> tuple:
 
     try:
         st = Path(path).expanduser().stat()
-    except OSError:
+    except (OSError, ValueError):  # ValueError: a NUL in the name (the read refuses it)
         return (path, None)
     return (path, st.st_mtime_ns, st.st_size)
 
