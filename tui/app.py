@@ -181,9 +181,9 @@ class HalftripApp(App[int]):
                 return demo[field_name]
         return default
 
-    def on_key_bar_selected(self, message: KeyBar.Selected) -> None:
+    async def on_key_bar_selected(self, message: KeyBar.Selected) -> None:
         if isinstance(message.bar, PanelBar):
-            self.run_action(f"open_panel('{message.name}')")
+            await self.action_open_panel(message.name)
 
     def action_mark_possibly_live(self) -> None:
         """``!``: mark (or unmark) the current panel's line as possibly live."""

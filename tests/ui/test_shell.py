@@ -5,7 +5,7 @@ from __future__ import annotations
 import tomllib
 
 from textual.widgets import ContentSwitcher
-from uihelp import started
+from uihelp import started, wait_for
 
 from tui.app import create_app
 from tui.panels import discover
@@ -69,9 +69,11 @@ async def test_palette_offers_every_panel():
     async with app.run_test(size=(80, 24)) as pilot:
         await started(pilot)
         provider = HalftripCommands(app.screen)
-        titles = [t for t, _cb, _help in provider._commands()]
+        commands = {t: cb for t, cb, _help in provider._commands()}
         for spec in app.PANELS:
-            assert f"Panel: {spec.title}" in titles
+            assert f"Panel: {spec.title}" in commands
+        await commands["Panel: Cables"]()  # what the palette runs when it is chosen
+        await wait_for(pilot, lambda: app.current_panel == "cables")
 
 
 async def test_broken_preferences_file_is_reported_and_left_alone():
@@ -114,3 +116,32 @@ def test_discovery_follows_the_contract():
     assert specs, "no panels found"
     assert len({s.key for s in specs}) == len(specs)
     assert [s.order for s in specs] == sorted(s.order for s in specs)
+
+
+async def test_escape_steps_out_field_then_modes_then_bar_and_tab_goes_back_in():
+    from textual.widgets import Input
+
+    from tui.widgets.key_bar import KeyBar
+
+    app = create_app(start_panel="locate")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await started(pilot)
+        assert isinstance(app.focused, Input)
+        await pilot.press("escape")
+        assert isinstance(app.focused, KeyBar) and app.focused.id == "locate-mode-bar"
+        await pilot.press("escape")
+        assert isinstance(app.focused, PanelBar)
+        await pilot.press("escape")  # nothing further out: stays on the bar, nothing closes
+        assert isinstance(app.focused, PanelBar) and app.is_running
+        await pilot.press("enter")
+        await wait_for(pilot, lambda: isinstance(app.focused, Input))
+
+
+async def test_a_mouse_click_on_the_panel_bar_opens_the_panel():
+    app = create_app(start_panel="locate")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await started(pilot)
+        bar = app.query_one(PanelBar)
+        text = str(bar.render())
+        await pilot.click(PanelBar, offset=(text.index("Cables") + 1, 0))
+        await wait_for(pilot, lambda: app.current_panel == "cables")

@@ -16,15 +16,16 @@ async def wait_for(pilot, condition, timeout: float = 10.0) -> None:
 
 
 async def started(pilot) -> None:
-    """Wait for the start-up worker (pint, numpy, catalog) to finish."""
-    await wait_for(pilot, lambda: pilot.app.core_ready)
+    """Wait for the start-up worker (pint, numpy, catalog) to finish and the
+    cursor to be in the first panel (it is mounted after the first frame)."""
+    await wait_for(pilot, lambda: pilot.app.core_ready and pilot.app.focused is not None)
 
 
 async def type_into(pilot, input_id: str, text: str) -> None:
     """Focus the input ``input_id``, clear it and type ``text`` key by key."""
     from textual.widgets import Input
 
-    field = pilot.app.query_one(f"#{input_id}", Input)
+    field = pilot.app.screen.query_one(f"#{input_id}", Input)
     field.focus()
     await pilot.pause()
     field.value = ""
