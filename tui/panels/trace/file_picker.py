@@ -53,6 +53,11 @@ class FilePicker(ModalScreen[str | None]):
             yield TraceTree(self.start, id="picker-tree")
             yield Static("Enter picks, Escape cancels.", classes="panel-intro")
 
+    def on_mount(self) -> None:
+        # The app does not auto-focus (its panel bar would take the keys), so the
+        # dialog puts the keyboard on the demo list itself.
+        self.query_one("#picker-demos", OptionList).focus()
+
     def on_option_list_option_selected(self, event: OptionList.OptionSelected) -> None:
         if event.option.id:
             self.dismiss(event.option.id)
