@@ -115,13 +115,12 @@ async def panel_latencies(panel: str, field_id: str, start_text: str, cursor: in
     return latencies
 
 
-def main() -> int:
+def measure(keys: int) -> dict:
+    """Latencies (lists of seconds) of the reference field and both panels, and the
+    median seconds of the core calls alone."""
     import os
     import tempfile
 
-    parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
-    parser.add_argument("--keys", type=int, default=60)
-    args = parser.parse_args()
     sys.path.insert(0, str(ROOT))
     os.chdir(ROOT)
     tmp = tempfile.mkdtemp(prefix="halftrip-bench-")
@@ -130,14 +129,37 @@ def main() -> int:
     from tui.panels.trace import DEMO_DIR
     from tui.widgets.result_view import ResultView
 
-    sim_s, trace_s, compare_s = core_times(max(args.keys // 2, 10))
+    sim_s, trace_s, compare_s = core_times(max(keys // 2, 10))
     plain = asyncio.run(panel_latencies(
-        "echo", "echo-load-load", "100 ohm", 3, args.keys, {}, view_class=ResultView))
+        "echo", "echo-load-load", "100 ohm", 3, keys, {}, view_class=ResultView))
     echo = asyncio.run(panel_latencies(
-        "echo", "echo-run-load", "100 ohm", 3, args.keys, {"echo-run-run": "10 m:rg58, 20 m:rg59"}))
+        "echo", "echo-run-load", "100 ohm", 3, keys, {"echo-run-run": "10 m:rg58, 20 m:rg59"}))
     tr = asyncio.run(panel_latencies(
-        "trace", "trace-expect-load", "100 ohm", 3, args.keys,
+        "trace", "trace-expect-load", "100 ohm", 3, keys,
         {"trace-file": str(DEMO_DIR / "kestrel-ridge-feeder.csv"), "trace-on": RUN}))
+    return {"plain": plain, "echo": echo, "trace": tr, "sim_s": sim_s, "trace_s": trace_s,
+            "compare_s": compare_s}
+
+
+def figures(quick: bool = False) -> list[dict]:
+    """Rows for tests/benchmarks/run_all.py."""
+    m = measure(20 if quick else 60)
+    ref = _median_ms(m["plain"])
+    return [{"measure": f"keystroke to result, {what} (median)",
+             "halftrip": f"{_median_ms(m[key]):.1f} ms",
+             "reference": f"Echo Load field {ref:.1f} ms",
+             "ratio": _median_ms(m[key]) / ref, "target": ""}
+            for key, what in (("echo", "Echo whole-run prediction"),
+                              ("trace", "Trace expected load"))]
+
+
+def main() -> int:
+    parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    parser.add_argument("--keys", type=int, default=60)
+    args = parser.parse_args()
+    m = measure(args.keys)
+    plain, echo, tr = m["plain"], m["echo"], m["trace"]
+    sim_s, trace_s, compare_s = m["sim_s"], m["trace_s"], m["compare_s"]
 
     def spread(v):
         return f"median {_median_ms(v):.1f} ms, 90th percentile " \

@@ -44,7 +44,8 @@ def _result(i: int) -> dict:
             "vf": 0.66, "events": [{"distance_m": 1.0 * k, "size": 0.1} for k in range(8)]}
 
 
-def main() -> None:
+def measure() -> list[tuple[str, float, float]]:
+    """(what, halftrip's seconds, the reference's seconds) for each figure."""
     rows = []
     with tempfile.TemporaryDirectory() as tmp:
         tmp = Path(tmp)
@@ -94,9 +95,19 @@ def main() -> None:
         t_pic = best_of(lambda: trace_picture(trace), 3)
         t_arr = best_of(lambda: (np.array(distance), np.array(level)), 3)
         rows.append(("trace picture, 1e6 samples vs list->array", t_pic, t_arr))
+    return rows
 
+
+def figures(quick: bool = False) -> list[dict]:
+    """Rows for tests/benchmarks/run_all.py."""
+    return [{"measure": f"job log: {name}", "halftrip": f"{ours_s * 1e3:.2f} ms",
+             "reference": f"{ref_s * 1e3:.2f} ms", "ratio": ours_s / ref_s, "target": ""}
+            for name, ours_s, ref_s in measure()]
+
+
+def main() -> None:
     print(f"{'measure':<46} {'ours':>10} {'reference':>10} {'ratio':>7}")
-    for name, ours_s, ref_s in rows:
+    for name, ours_s, ref_s in measure():
         print(f"{name:<46} {ours_s * 1e3:>8.2f}ms {ref_s * 1e3:>8.2f}ms {ours_s / ref_s:>7.2f}")
 
 

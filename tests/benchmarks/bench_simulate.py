@@ -77,7 +77,9 @@ def scikit_rf_job(segments, prediction):
     return job
 
 
-def main() -> None:
+def measure(ours_repeat: int = 51, theirs_repeat: int = 5) -> dict:
+    """{run name: (prediction, halftrip with echoes, halftrip trace alone, scikit-rf)},
+    each timing a (median, best) pair in seconds."""
     catalog = load_catalog()
     load = parse_load(LOAD)
     runs = {}
@@ -87,18 +89,37 @@ def main() -> None:
         runs[name] = (segments, simulate(segments, load, lumps=LUMPS, n_points=POINTS))
     # halftrip first: scikit-rf's complex matrix products (BLAS zgemm) can leave the CPU
     # slow at every complex exp that follows in the same process, which would slow ours
-    ours = {name: timings(lambda s=seg: simulate(s, load, lumps=LUMPS, n_points=POINTS), 51)
-            for name, (seg, _) in runs.items()}
+    ours = {name: timings(lambda s=seg: simulate(s, load, lumps=LUMPS, n_points=POINTS),
+                          ours_repeat) for name, (seg, _) in runs.items()}
     trace = {name: timings(lambda s=seg: simulate(s, load, lumps=LUMPS, n_points=POINTS,
-                                                  arrivals=False), 51)
+                                                  arrivals=False), ours_repeat)
              for name, (seg, _) in runs.items()}
-    theirs = {name: timings(scikit_rf_job(seg, p), 5) for name, (seg, p) in runs.items()}
+    theirs = {name: timings(scikit_rf_job(seg, p), theirs_repeat)
+              for name, (seg, p) in runs.items()}
+    return {name: (p, ours[name], trace[name], theirs[name]) for name, (_, p) in runs.items()}
+
+
+def figures(quick: bool = False) -> list[dict]:
+    """Rows for tests/benchmarks/run_all.py: the trace alone, the job scikit-rf does."""
+    rows = []
+    for name, (_p, _ours, (trace_median, _), (sk_median, _)) in measure(
+            *((11, 2) if quick else (51, 5))).items():
+        rows.append({"measure": f"whole-run prediction, 16-segment {name} run, {POINTS:,} "
+                                "points (trace)",
+                     "halftrip": f"{trace_median * 1e3:.2f} ms",
+                     "reference": f"scikit-rf {sk_median * 1e3:.0f} ms",
+                     "ratio": trace_median / sk_median,
+                     "target": "< 5 ms; ratio <= 1/30"})
+    return rows
+
+
+def main() -> None:
+    results = measure()
     print(f"load average {os.getloadavg()[0]:.2f} on {os.cpu_count()} CPUs")
     print("halftrip: the trace alone (what scikit-rf computes), and with its list of echoes")
     print(f"{'run':<7} {'points':>6} {'FFT':>6} {'echoes':>6}  {'trace: median (best)':>21}  "
           f"{'with echoes':>20}  {'scikit-rf':>9}  {'ratio':>5} {'(with echoes)':>13}")
-    for name, (_, p) in runs.items():
-        (om, ob), (cm, cb), (tm, _) = ours[name], trace[name], theirs[name]
+    for name, (p, (om, ob), (cm, cb), (tm, _)) in results.items():
         print(f"{name:<7} {POINTS:>6} {p.n_fft:>6} {len(p.arrivals):>6}  "
               f"{cm * 1e3:>7.2f} ms ({cb * 1e3:5.2f} ms)  {om * 1e3:>6.2f} ms ({ob * 1e3:5.2f} ms)"
               f"  {tm * 1e3:>6.0f} ms  {tm / cm:>4.0f}x {tm / om:>12.0f}x")

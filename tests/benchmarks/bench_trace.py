@@ -61,13 +61,14 @@ def best(fn, repeats: int = REPEATS) -> float:
     return min(times)
 
 
-def main() -> int:
+def measure(repeats: int = REPEATS) -> dict:
+    """Seconds (best of ``repeats``) of halftrip's read + analysis, of the read alone and
+    of numpy.loadtxt on the same file, with the first call's (pint's start-up) time."""
     t, v = make_trace()
     with tempfile.TemporaryDirectory() as tmp:
         path = Path(tmp) / "bench-trace.csv"
         np.savetxt(path, np.column_stack([t * 1e9, v]), delimiter=",", fmt="%.6f",
                    header="time_ns,level_V", comments="")
-        size_mb = path.stat().st_size / 1e6
 
         def ours():
             trace = read_trace(path.read_bytes(), path.name)
@@ -76,12 +77,27 @@ def main() -> int:
         t0 = time.perf_counter()
         result = ours()
         cold = time.perf_counter() - t0
-        ours_s = best(ours)
-        ref_s = best(lambda: np.loadtxt(path, delimiter=",", skiprows=1))
-        read_s = best(lambda: read_trace(path.read_bytes(), path.name))
-    print(f"trace: {N:,} samples, {size_mb:.1f} MB CSV; {len(result.events)} events found")
-    print(f"halftrip read + analyse  {ours_s * 1e3:8.1f} ms   (read alone {read_s * 1e3:.1f} ms;"
-          f" first call with pint's start-up {cold * 1e3:.1f} ms)")
+        return {"size_mb": path.stat().st_size / 1e6, "events": len(result.events),
+                "cold_s": cold, "ours_s": best(ours, repeats),
+                "ref_s": best(lambda: np.loadtxt(path, delimiter=",", skiprows=1), repeats),
+                "read_s": best(lambda: read_trace(path.read_bytes(), path.name), repeats)}
+
+
+def figures(quick: bool = False) -> list[dict]:
+    """Rows for tests/benchmarks/run_all.py."""
+    m = measure(2 if quick else REPEATS)
+    return [{"measure": f"trace read + analysis, {N:,} samples ({m['size_mb']:.0f} MB CSV)",
+             "halftrip": f"{m['ours_s'] * 1e3:.0f} ms",
+             "reference": f"numpy.loadtxt {m['ref_s'] * 1e3:.0f} ms",
+             "ratio": m["ours_s"] / m["ref_s"], "target": f"< {TARGET_S * 1e3:.0f} ms"}]
+
+
+def main() -> int:
+    m = measure()
+    ours_s, ref_s = m["ours_s"], m["ref_s"]
+    print(f"trace: {N:,} samples, {m['size_mb']:.1f} MB CSV; {m['events']} events found")
+    print(f"halftrip read + analyse  {ours_s * 1e3:8.1f} ms   (read alone {m['read_s'] * 1e3:.1f}"
+          f" ms; first call with pint's start-up {m['cold_s'] * 1e3:.1f} ms)")
     print(f"numpy.loadtxt (reference) {ref_s * 1e3:8.1f} ms")
     print(f"ratio halftrip / loadtxt   {ours_s / ref_s:8.2f}")
     ok = ours_s < TARGET_S

@@ -10,7 +10,8 @@ Every ``bench_*.py`` beside this file is a plain script that also exposes
 * ``measure``: what was measured (one line);
 * ``halftrip``: halftrip's figure, formatted with its unit;
 * ``reference``: the reference measured in the same run, or ``""``;
-* ``ratio``: halftrip / reference (a float), or None where nothing compares;
+* ``ratio``: halftrip / reference (a float), or None where nothing compares
+  (shown as ``1/N`` when far below 1);
 * ``target``: the target this figure is held to, or ``""``.
 
 Each benchmark module is imported in a fresh interpreter of its own (so one
@@ -85,11 +86,14 @@ def run_one(path: Path, quick: bool, env: dict[str, str]) -> tuple[list[dict] | 
             rows = json.loads(line[len(MARK):])
             return rows, "" if rows is not None else "no figures() function"
     last = (proc.stderr.strip().splitlines() or ["no output"])[-1]
-    return None, f"failed: {last}"
+    return None, f"failed: {last[:100]}"
 
 
 def _ratio(value) -> str:
-    return "" if value is None else f"{value:.2f}"
+    """``1.41``, or ``1/130`` for a figure far below its reference (easier to read)."""
+    if value is None:
+        return ""
+    return f"1/{1.0 / value:.0f}" if 0 < value < 0.1 else f"{value:.2f}"
 
 
 def table(results: list[tuple[str, list[dict] | None, str]], markdown: bool) -> str:
