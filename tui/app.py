@@ -166,8 +166,16 @@ class HalftripApp(App[int]):
         """The cursor into the panel's first shown text field (else its first stop)."""
         from textual.widgets import Input
 
-        shown = [w for w in widget.query("*") if w.focusable and w.is_on_screen]
-        first = next((w for w in shown if isinstance(w, Input)), shown[0] if shown else None)
+        def shown(w) -> bool:  # not in a hidden mode (laid out or not yet)
+            node = w
+            while node is not None and node is not widget:
+                if not node.display:
+                    return False
+                node = node.parent
+            return True
+
+        stops = [w for w in widget.query("*") if w.focusable and shown(w)]
+        first = next((w for w in stops if isinstance(w, Input)), stops[0] if stops else None)
         if first is not None:
             first.focus()
 

@@ -18,7 +18,12 @@ async def wait_for(pilot, condition, timeout: float = 10.0) -> None:
 async def started(pilot) -> None:
     """Wait for the start-up worker (pint, numpy, catalog) to finish and the
     cursor to be in the first panel (it is mounted after the first frame)."""
-    await wait_for(pilot, lambda: pilot.app.core_ready and pilot.app.focused is not None)
+    app = pilot.app
+    try:
+        await wait_for(pilot, lambda: app.core_ready and app.focused is not None, timeout=30)
+    except AssertionError:
+        raise AssertionError(f"not started: core_ready={app.core_ready} focused={app.focused} "
+                             f"panel={app.current_panel} workers={list(app.workers)}") from None
 
 
 async def type_into(pilot, input_id: str, text: str) -> None:
