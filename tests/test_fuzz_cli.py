@@ -16,6 +16,7 @@ import io
 import json
 import warnings
 from contextlib import redirect_stderr, redirect_stdout
+from functools import lru_cache
 from pathlib import Path
 
 import pytest
@@ -123,6 +124,16 @@ def _present(name: str) -> bool:
         return False
     commands = {a for a in build_parser()._actions if isinstance(a, argparse._SubParsersAction)}
     return any(BASELINES[name][0] in a.choices for a in commands)
+
+
+@pytest.fixture(autouse=True)
+def _one_parser(monkeypatch):
+    """main() builds the whole parser on every call (once per real command line); here
+    it would be three quarters of each example's time. The parser is not changed by
+    parsing, so the fuzz builds it once."""
+    import tui.cli
+
+    monkeypatch.setattr(tui.cli, "build_parser", lru_cache(maxsize=1)(tui.cli.build_parser))
 
 
 def _has_json(name: str) -> bool:
