@@ -69,7 +69,8 @@ def input_impedance(
     zl = np.asarray(z_load, dtype=complex)
     z0c = np.asarray(z0, dtype=complex)
     t = np.tanh(np.asarray(gamma_prop, dtype=complex) * length_m)
-    with np.errstate(divide="ignore", invalid="ignore"):
+    # over: an open behind a line too short to matter (tanh underflows) is still an open
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         finite = z0c * (zl + z0c * t) / (z0c + zl * t)
         open_end = z0c / t
     return np.where(np.isinf(zl), open_end, finite)

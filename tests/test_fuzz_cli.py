@@ -235,3 +235,13 @@ def test_found_by_fuzzing_now_gives_a_result(argv):
     code, out, err = _run(argv + ["--json"])
     assert code == 0, err
     assert json.loads(out)["distance_m"] == 1e-320
+
+
+def test_an_open_behind_a_line_too_short_to_matter_stays_open():
+    # found by the fuzz: at 1e-301 Hz tanh(gamma l) underflowed and Z0 / tanh overflowed
+    # (a numeric warning, exit 1). An open reflects with Gamma = +1 (Pozar, Microwave
+    # Engineering, ch. 2), and a line of no electrical length changes nothing.
+    code, out, err = _run(["echo", "--z0", "50 ohm", "--load", "open", "--through", "10 m",
+                           "--vf", "0.66", "--frequency", "1E-301HZ", "--json"])
+    assert code == 0, err
+    assert json.loads(out)["gamma_real"] == pytest.approx(1.0)
