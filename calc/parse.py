@@ -78,7 +78,10 @@ KINDS: dict[str, Kind] = {
     "time": Kind("s", "245 ns", noun="time"),
     "length": Kind("m", "12 ft 6 in", noun="length"),
     "length_or_zero": Kind("m", "15 mm", minimum=0.0, min_inclusive=True, noun="length"),
-    "frequency": Kind("Hz", "146.52 MHz", noun="frequency"),
+    # 1 mHz to 1 THz: outside, no cable measurement is meant and the line
+    # arithmetic overflows (fuzz found 1e-301 Hz; common practice).
+    "frequency": Kind("Hz", "146.52 MHz", minimum=1e-3, min_inclusive=True, maximum=1e12,
+                      noun="frequency"),
     # 1 micro-ohm to 1 gigaohm: beyond either end no cable or load is meant, and
     # the terminated-line arithmetic would overflow (common practice).
     "impedance": Kind("ohm", "50 ohm", bare_unit="ohm", minimum=1e-6, min_inclusive=True,

@@ -67,7 +67,7 @@ REFUSED = [
     ("80", "length", "needs a unit"),
     ("-3 m", "length", "greater than 0"),
     ("0 ns", "time", "greater than 0"),
-    ("0 Hz", "frequency", "greater than 0"),
+    ("0 Hz", "frequency", "at least 0.001"),
     ("nan ns", "time", "finite"),
     ("inf m", "length", "finite"),
     ("1e400 m", "length", "finite"),

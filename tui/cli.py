@@ -6,9 +6,7 @@ Exit codes are :class:`Exit`.
 
 from __future__ import annotations
 
-import importlib
 import os
-import pkgutil
 import sys
 from enum import IntEnum
 
@@ -20,6 +18,9 @@ class Exit(IntEnum):
 
 
 def _command_modules():
+    import importlib
+    import pkgutil  # here, not at the top: plain ``halftrip`` (the TUI) does not need it
+
     import tui.commands as pkg
 
     for info in sorted(pkgutil.iter_modules(pkg.__path__), key=lambda i: i.name):

@@ -54,7 +54,7 @@ Modules whose name starts with ``_`` are skipped (private helpers).
 from __future__ import annotations
 
 import importlib
-import pkgutil
+import os
 from dataclasses import dataclass
 from types import ModuleType
 
@@ -82,14 +82,25 @@ class PanelContractError(TypeError):
 def discover(names: tuple[str, ...] | None = None) -> list[PanelSpec]:
     """Every panel module in this package (or only ``names``), in bar order."""
     found = []
-    for info in pkgutil.iter_modules(__path__):
-        if info.name.startswith("_") or (names is not None and info.name not in names):
+    for name in _module_names():
+        if name.startswith("_") or (names is not None and name not in names):
             continue
-        module = importlib.import_module(f"{__name__}.{info.name}")
-        found.append(_spec(info.name, module))
+        module = importlib.import_module(f"{__name__}.{name}")
+        found.append(_spec(name, module))
     found.sort(key=lambda s: (s.order, s.name))
     _check_unique(found)
     return found
+
+
+def _module_names() -> list[str]:
+    """Modules and packages in this folder (a listing: pkgutil costs ~10 ms to import)."""
+    names = []
+    for entry in os.scandir(__path__[0]):
+        if entry.is_file() and entry.name.endswith(".py") and entry.name != "__init__.py":
+            names.append(entry.name[:-3])
+        elif entry.is_dir() and os.path.exists(os.path.join(entry.path, "__init__.py")):
+            names.append(entry.name)
+    return sorted(names)
 
 
 def _spec(name: str, module: ModuleType) -> PanelSpec:
