@@ -75,9 +75,13 @@ class Kind:
 
 
 KINDS: dict[str, Kind] = {
-    "time": Kind("s", "245 ns", noun="time"),
-    "length": Kind("m", "12 ft 6 in", noun="length"),
-    "length_or_zero": Kind("m", "15 mm", minimum=0.0, min_inclusive=True, noun="length"),
+    # At most 1 s and 10,000 km: a second is the round trip of some 100,000 km of
+    # cable, and no run is longer than 10,000 km; beyond, the line arithmetic
+    # overflows (fuzz found 1e300 s and 1e308 m; common practice).
+    "time": Kind("s", "245 ns", maximum=1.0, noun="time"),
+    "length": Kind("m", "12 ft 6 in", maximum=1e7, noun="length"),
+    "length_or_zero": Kind("m", "15 mm", minimum=0.0, min_inclusive=True, maximum=1e7,
+                           noun="length"),
     # 1 mHz to 1 THz: outside, no cable measurement is meant and the line
     # arithmetic overflows (fuzz found 1e-301 Hz; common practice).
     "frequency": Kind("Hz", "146.52 MHz", minimum=1e-3, min_inclusive=True, maximum=1e12,
