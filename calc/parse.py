@@ -134,6 +134,19 @@ CASE_FOLDED: dict[str, dict[str, str]] = {
     "velocity": _TIME_SYMBOLS | _LENGTH_SYMBOLS,
     "angle": _symbols("deg"),
 }
+#: The SI scale of every symbol in :data:`CASE_FOLDED`: "number symbol" in a field
+#: of its own kind is read without pint (whose import and registry take about
+#: 0.4 s of a CLI command's start-up). ``tests/test_parse.py`` holds every entry
+#: to pint's own conversion.
+SYMBOL_SCALE: dict[str, float] = {
+    "fs": 1e-15, "ps": 1e-12, "ns": 1e-9, "us": 1e-6, "ms": 1e-3, "s": 1.0,
+    "mm": 1e-3, "cm": 1e-2, "m": 1.0, "km": 1e3, "ft": 0.3048, "in": 0.0254,
+    "Hz": 1.0, "kHz": 1e3, "MHz": 1e6, "GHz": 1e9, "ohm": 1.0, "kohm": 1e3,
+    "fF": 1e-15, "pF": 1e-12, "nF": 1e-9, "uF": 1e-6,
+    "pH": 1e-12, "nH": 1e-9, "uH": 1e-6, "mH": 1e-3, "deg": 1.0,
+}
+#: Kinds whose symbols all measure the kind itself (not ns/ft or m/us).
+_SCALED_KINDS = frozenset(CASE_FOLDED) - {"delay_per_length", "velocity"}
 _SYMBOL = re.compile(r"(?<![A-Za-z])[A-Za-z]+(?![A-Za-z])")
 _COMMA_IN_NUMBER = re.compile(r"\d,\d")
 
@@ -141,6 +154,7 @@ _WAVELENGTH_WORDS = ("wavelengths", "wavelength", "lambda", "wl", "λ")
 _NUMBER = r"[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?"
 _MIXED_FRACTION = re.compile(r"(?<![\w.])(\d+)[\s-]+(\d+)/(\d+)(?![\w.])")
 _SIMPLE_FRACTION = re.compile(r"(?<![\w./])(\d+)/(\d+)(?![\d./])")
+_NUMBER_SYMBOL = re.compile(rf"^\s*(?P<number>{_NUMBER})\s*(?P<symbol>[A-Za-z]+)\s*$")
 _FEET_INCHES = re.compile(
     rf"^\s*(?:(?P<ft>{_NUMBER})\s*(?:ft|feet|foot|')\s*)?"
     rf"(?:(?P<inch>{_NUMBER})\s*(?:in|inch|inches|\"|''))?\s*$"
@@ -188,6 +202,14 @@ def _feet_inches_m(text: str) -> float | None:
     return feet * 0.3048 + inches * 0.0254
 
 
+def _scaled(text: str, kind: str) -> float | None:
+    """'245 ns', '146.52MHz' -> SI float by :data:`SYMBOL_SCALE`; None if not that shape."""
+    m = _NUMBER_SYMBOL.match(text)
+    if not m or m.group("symbol") not in CASE_FOLDED[kind].values():
+        return None
+    return float(m.group("number")) * SYMBOL_SCALE[m.group("symbol")]
+
+
 def _fail(field: str, kind: Kind, problem: str) -> InputError:
     return InputError(field, problem, kind.example)
 
@@ -222,6 +244,8 @@ def parse(text: str, field: str, kind: str) -> float:
                 break
     if value is None and kind.startswith("length"):
         value = _feet_inches_m(t)
+    if value is None and kind in _SCALED_KINDS:
+        value = _scaled(t, kind)
     if value is None:
         value = _with_pint(t, field, k)
     return _check_range(value, field, k, raw)

@@ -8,6 +8,7 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
+import calc.parse as parse_module
 from calc.errors import InputError
 from calc.parse import parse, parse_complex_impedance
 
@@ -187,3 +188,49 @@ def test_bare_number_for_a_percentage_says_how_it_was_read():
     with pytest.raises(InputError) as info:
         parse("66", "--vf", "vf")
     assert "'0.66'" in str(info.value)
+
+
+# -- "number symbol" read without pint: the same value pint gives -----------------------
+# Source: the SI Brochure (BIPM, 9th edition, 2019), table 7 of the SI prefixes; the
+# international foot (0.3048 m) and inch (0.0254 m), exact since 1959 (NIST SP 811,
+# appendix B). pint, the general-purpose units library, converts the same text.
+_SCALED = [(kind, symbol) for kind in sorted(parse_module._SCALED_KINDS)
+           for symbol in sorted(set(parse_module.CASE_FOLDED[kind].values()))]
+
+
+@pytest.mark.parametrize(("kind", "symbol"), _SCALED)
+@given(number=st.floats(min_value=1e-3, max_value=1e3, allow_nan=False))
+@settings(max_examples=25, deadline=None)
+def test_symbol_scale_agrees_with_pint(kind, symbol, number):
+    ureg = parse_module._ureg()
+    text = f"{number!r} {symbol}"
+    try:
+        mine = parse(text, "field", kind)
+    except InputError:  # outside the kind's range: pint's value must be outside it too
+        k = parse_module.KINDS[kind]
+        theirs = ureg.Quantity(number, symbol).to(k.si_unit).magnitude
+        assert not (k.minimum or 0) < theirs <= (k.maximum or math.inf)
+        return
+    theirs = ureg.Quantity(number, symbol).to(parse_module.KINDS[kind].si_unit).magnitude
+    assert mine == pytest.approx(theirs, rel=1e-14)
+
+
+@pytest.mark.parametrize(("text", "kind", "expected"), [
+    ("245 ns", "time", 245e-9),  # SI prefix nano, 1e-9 (SI Brochure, table 7)
+    ("245ns", "time", 245e-9),
+    ("146.52 MHz", "frequency", 146.52e6),  # mega, 1e6
+    ("10 ft", "length", 3.048),  # international foot, 0.3048 m exactly (NIST SP 811)
+    ("4.7 kohm", "impedance", 4700.0),  # kilo, 1e3
+    ("22 pF", "capacitance", 22e-12),  # pico, 1e-12
+    ("90 deg", "angle", 90.0),
+])
+def test_number_and_symbol_read_without_pint(text, kind, expected):
+    parse.cache_clear()
+    before = parse_module._registry
+    parse_module._registry = None
+    try:
+        assert parse(text, "field", kind) == pytest.approx(expected, rel=1e-15)
+        assert parse_module._registry is None  # pint was not needed
+    finally:
+        parse_module._registry = before
+        parse.cache_clear()
