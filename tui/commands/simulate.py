@@ -94,6 +94,23 @@ def compute(args):
         [s.cable for s in run_segments]
 
 
+def logged_data(data: dict) -> dict:
+    """What a job-log entry of a prediction holds, from ``--save`` and the Echo panel
+    alike: the ``--json`` result with its arrays decimated to at most
+    :data:`tui.joblog.picture.MAX_STORED_SAMPLES` samples (every echo keeps its extreme),
+    enough for the report's picture; the inputs remake the full prediction."""
+    from tui.fmt import json_ready
+    from tui.joblog.picture import stored_samples
+
+    arrays = stored_samples(data["level"], time_s=data["time_s"], distance_m=data["distance_m"])
+    return json_ready({**data, **arrays})
+
+
+def log_result(args, data: dict) -> dict:
+    """``--save``: :func:`logged_data`."""
+    return logged_data(data)
+
+
 def _data(args, p) -> dict:
     return {
         "run": args.run,

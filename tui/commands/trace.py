@@ -572,9 +572,33 @@ def _fit(lines: list[str]) -> list[str]:
     return out
 
 
-def run(args) -> int:
-    units, fraction = units_of(args)
-    setup, info, notes, analysis = analyse_file(args)
+def rho_trace(setup, analysis):
+    """The recorded samples as the analysis reads them: time from the reference
+    (the incident edge's midpoint, or 0) and level in rho (calc.events, step 1),
+    from the earliest delay the analysis sees (the instrument's own edge and
+    the dead zone are left out). The TUI plots these; the job log keeps them."""
+    t = setup.time_s - analysis.time_zero_s
+    edge = analysis.incident
+    level = setup.level if edge is None else (setup.level - edge.top) / edge.height
+    keep = t >= analysis.start_delay_s
+    return t[keep], level[keep]
+
+
+def distance_axis(time_s, setup):
+    """Distance of every sample on the placement the analysis used."""
+    from calc.locate import distance_from_delay_m
+
+    if setup.segments is None:
+        return distance_from_delay_m(time_s, setup.vf)
+    from calc.events import run_segments
+    from calc.simulate import distance_from_round_trip
+
+    return distance_from_round_trip(time_s, run_segments(setup.segments))
+
+
+def result_data(setup, info: dict, notes: list[str], analysis, cmp=None,
+                expected_run: str | None = None, expected_load: str | None = None) -> dict:
+    """What ``halftrip trace --json`` prints (the Trace panel saves the same)."""
     a = analysis
     data = {
         **info,
@@ -584,12 +608,50 @@ def run(args) -> int:
         "noise_rms": a.noise_rms,
         "threshold": a.threshold,
         "events": [event_record(e, a.z0_ohm, a.events) for e in a.events],
-        "notes": list(a.notes) + notes,
+        "notes": list(a.notes) + list(notes),
     }
+    if cmp is not None:
+        data.update(expected_run=expected_run, expected_load=expected_load,
+                    **comparison_data(cmp, analysis))
+    return data
+
+
+def logged_data(setup, info: dict, notes: list[str], analysis, cmp=None,
+                expected_run: str | None = None, expected_load: str | None = None) -> dict:
+    """What a job-log entry of a trace holds, from the CLI's ``--save`` and the Trace
+    panel alike: the ``--json`` result plus ``"trace"``, the samples the analysis read
+    (time, distance on the placement, level in rho) in at most
+    :data:`tui.joblog.picture.MAX_STORED_SAMPLES` each, decimated so every spike keeps
+    its extreme, for the report's picture with the events marked."""
+    from tui.fmt import json_ready
+    from tui.joblog.picture import stored_samples
+
+    t, rho = rho_trace(setup, analysis)
+    data = result_data(setup, info, notes, analysis, cmp, expected_run, expected_load)
+    return json_ready({**data, "trace": stored_samples(rho, time_s=t,
+                                                       distance_m=distance_axis(t, setup))})
+
+
+#: The last analysis ``run`` printed, for ``--save`` (:func:`log_result`): (args, its parts).
+_printed: tuple | None = None
+
+
+def log_result(args, data: dict) -> dict:
+    """``--save``: the printed result and the trace's samples (:func:`logged_data`)."""
+    if _printed is None or _printed[0] is not args:
+        return data
+    return logged_data(*_printed[1], expected_run=args.expect_run,
+                       expected_load=args.expect_load)
+
+
+def run(args) -> int:
+    global _printed
+    units, fraction = units_of(args)
+    setup, info, notes, analysis = analyse_file(args)
     lines = describe(info, notes, analysis, units, fraction)
     cmp = compare_with_expected(args, setup, analysis)
     if cmp is not None:
-        data.update(expected_run=args.expect_run, expected_load=args.expect_load,
-                    **comparison_data(cmp, analysis))
         lines += describe_comparison(cmp, analysis, units, fraction)
+    data = result_data(setup, info, notes, analysis, cmp, args.expect_run, args.expect_load)
+    _printed = (args, (setup, info, notes, analysis, cmp))
     return emit(args, data, lines)

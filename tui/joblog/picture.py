@@ -19,6 +19,42 @@ from tui import fmt
 WIDTH = 60  # plot columns; with the level labels the picture is 69 characters wide
 HEIGHT = 13  # plot rows
 MARKED_LISTS = ("events", "arrivals")
+#: Most samples kept per array when a trace is stored in the job log: 511 buckets of the
+#: trace, each keeping its lowest and highest sample, plus the first and last sample. A
+#: 1,000,000-sample trace is stored as at most this many (time, distance, level) triples.
+MAX_STORED_SAMPLES = 1024
+#: Significant digits kept of each stored sample (a picture or a plot needs far fewer).
+STORED_DIGITS = 7
+
+
+def stored_samples(level, limit: int = MAX_STORED_SAMPLES, **axes) -> dict:
+    """A trace as the job log keeps it: ``{"<axis>": [...], ..., "level": [...]}`` with at
+    most ``limit`` samples, in the keys :func:`find_trace` looks for (``time_s``,
+    ``distance_m``). A longer trace is cut into equal buckets of consecutive samples and
+    each keeps its lowest and its highest sample, in their order, so a reflection one
+    sample wide keeps its extreme and the picture drawn from the copy is the picture of
+    the whole trace. Values are rounded to :data:`STORED_DIGITS` significant digits."""
+    level = np.asarray(level, dtype=float)
+    axes = {k: np.asarray(v, dtype=float) for k, v in axes.items()}
+    n = level.size
+    if n > limit:
+        width = -(-(n - 2) // ((limit - 2) // 2))  # samples per bucket, rounded up
+        body = level[1:n - 1]
+        whole = body.size // width * width
+        starts = np.arange(0, body.size, width)
+        blocks = body[:whole].reshape(-1, width)
+        low = np.append(blocks.argmin(axis=1), [] if whole == body.size else
+                        [body[whole:].argmin()]).astype(int) + starts
+        high = np.append(blocks.argmax(axis=1), [] if whole == body.size else
+                         [body[whole:].argmax()]).astype(int) + starts
+        keep = np.unique(np.concatenate(([0], low + 1, high + 1, [n - 1])))
+        level = level[keep]
+        axes = {k: v[keep] for k, v in axes.items()}
+
+    def rounded(values: np.ndarray) -> list:
+        return [float(f"{v:.{STORED_DIGITS}g}") for v in values.tolist()]
+
+    return {**{k: rounded(v) for k, v in axes.items()}, "level": rounded(level)}
 
 
 def _numbers(values) -> np.ndarray | None:

@@ -12,8 +12,6 @@ from tui.widgets.trace_view import TraceShown, TraceView
 
 COLUMNS = ("#", "delay", "distance", "size", "path")
 EDGE_EXAMPLE = "rise 1 ns, or pulse 10 ns"
-#: The prediction's arrays are not kept in the job log (the inputs remake them).
-NOT_LOGGED = ("time_s", "distance_m", "level")
 
 
 def read_edge(text: str, label: str) -> tuple[str, str] | None:
@@ -89,7 +87,10 @@ class RunForm(CommandForm):
         return TraceShown(prediction_line(data), plot, rows, details)
 
     def log_result(self, result) -> dict:
-        return {k: v for k, v in result[0].items() if k not in NOT_LOGGED}
+        """What ``halftrip simulate --save`` stores (arrays decimated for the picture)."""
+        from tui.commands.simulate import logged_data
+
+        return logged_data(result[0])
 
     def finish(self, result=None, error=None) -> None:
         super().finish(result, error)

@@ -77,30 +77,6 @@ def _file_key(path: str) -> tuple:
     return (path, st.st_mtime_ns, st.st_size)
 
 
-def rho_trace(setup, analysis):
-    """The recorded samples as the analysis reads them: time from the reference
-    (the incident edge's midpoint, or 0) and level in rho (calc.events, step 1),
-    from the earliest delay the analysis sees (the instrument's own edge and
-    the dead zone are left out)."""
-    t = setup.time_s - analysis.time_zero_s
-    edge = analysis.incident
-    level = setup.level if edge is None else (setup.level - edge.top) / edge.height
-    keep = t >= analysis.start_delay_s
-    return t[keep], level[keep]
-
-
-def distance_axis(time_s, setup):
-    """Distance of every sample on the placement the analysis used."""
-    from calc.locate import distance_from_delay_m
-
-    if setup.segments is None:
-        return distance_from_delay_m(time_s, setup.vf)
-    from calc.events import run_segments
-    from calc.simulate import distance_from_round_trip
-
-    return distance_from_round_trip(time_s, run_segments(setup.segments))
-
-
 class TraceForm(CommandForm):
     """File, placement (cable, VF or run), expected load and run; the distance-axis
     VF field shows when a file drawn against distance needs it."""
@@ -189,17 +165,13 @@ class TraceForm(CommandForm):
         return trace_shown(result[0], self.units, self.fraction)
 
     def log_result(self, result) -> dict:
-        """What ``halftrip trace --json`` gives: the events and the comparison."""
-        from tui.commands.trace import comparison_data, event_record
+        """What ``halftrip trace FILE --save`` stores: the events, the comparison and the
+        trace's samples, decimated (:func:`tui.commands.trace.logged_data`)."""
+        from tui.commands.trace import logged_data
 
-        r = result[0]
-        a = r.analysis
-        data = {**r.info, "rise_time_s": a.rise_time_s, "noise_rms": a.noise_rms,
-                "events": [event_record(e, a.z0_ohm, a.events) for e in a.events],
-                "notes": list(a.notes) + list(r.notes)}
-        if r.comparison is not None:
-            data.update(comparison_data(r.comparison, a))
-        return data
+        r, ns = result[0], self.options(result[3])
+        return logged_data(r.setup, r.info, r.notes, r.analysis, r.comparison,
+                           ns.expect_run, ns.expect_load)
 
     def finish(self, result=None, error=None) -> None:
         super().finish(result, error)

@@ -54,8 +54,7 @@ def verdicts(comparison, units: str, fraction: int) -> dict[int, str]:
 
 def trace_shown(result, units: str, fraction: int) -> TraceShown:
     """Everything the trace view draws for one analysed trace."""
-    from tui.commands.trace import _where, describe_event
-    from tui.panels.trace.trace_form import distance_axis, rho_trace
+    from tui.commands.trace import _where, describe_event, distance_axis, rho_trace
     from tui.widgets.trace_plot import Mark, PlotData
 
     a, c = result.analysis, result.comparison
