@@ -292,14 +292,15 @@ async def test_locate_panel_saves_what_the_cli_saves_and_reopens_cli_entries(cap
         await pilot.press("ctrl+s")
         await _answer(pilot, "from the panel", "")
         await wait_for(pilot, lambda: len(_entries()) == 3)
-        cli, _run, tui = _entries()
+        cli, run, tui = _entries()
         assert tui.kind == cli.kind == "locate"
+        assert run.kind == "locate-run"  # the Run tab's own kind, from either front end
         assert tui.inputs == cli.inputs == {"delay": "245 ns", "cable": "rg58"}
         # the same numbers under the same keys (the panel may add keys of its own)
         assert {k: tui.result.get(k) for k in cli.result} == cli.result
 
         table = await _log_table(pilot)
-        table.select(2)  # the run saved from the CLI (kind "locate", a run input)
+        table.select(2)  # the run saved from the CLI
         await pilot.press("o")
         await wait_for(pilot, lambda: app.current_panel == "locate")
         modes = app.query_one("#locate-modes", Modes)

@@ -316,6 +316,15 @@ def _two_ended(args, units, fraction) -> int:
 # ---------------------------------------------------------------- entry
 
 
+def log_kind(args) -> str:
+    """The job-log kind of a ``--save``: the kinds the Locate panel saves its modes under
+    (``locate`` one cable, ``locate-run``, ``locate-two-ended``), so an entry reads the
+    same from either front end."""
+    if any(v is not None for v in (args.from_a, args.from_b, args.length)):
+        return "locate-two-ended"
+    return "locate-run" if args.run is not None else "locate"
+
+
 def run(args) -> int:
     from calc.errors import InputError
     from calc.parse import parse
