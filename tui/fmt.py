@@ -7,6 +7,7 @@ TUI and the CLI show the same numbers the same way.
 from __future__ import annotations
 
 import math
+from typing import NamedTuple
 
 from calc.tape import to_feet_inches
 
@@ -32,6 +33,71 @@ def length(length_m: float, units: str = "metric", fraction: int = 16) -> str:
     if a < 1000.0:
         return f"{length_m:.3f} m"
     return f"{length_m / 1000:.4f} km"
+
+
+class UncertainLength(NamedTuple):
+    """A distance shown to the precision its uncertainty supports (:func:`uncertain_length`):
+    ``str()`` gives ``"24.2 m +/- 0.8 m"``."""
+
+    value: str  # the distance, rounded to the step
+    plus_minus: str  # the half-width of the range, rounded up to the step ("" without one)
+    low: str  # the range's ends, rounded outwards to the step
+    high: str
+
+    def __str__(self) -> str:
+        return f"{self.value} +/- {self.plus_minus}" if self.plus_minus else self.value
+
+    @property
+    def span(self) -> str:
+        """The range as ``"23.5 m to 25.0 m"``."""
+        return f"{self.low} to {self.high}"
+
+
+#: Steps for imperial distances, in inches (those finer than the tape fraction are skipped).
+_INCH_STEPS = (1 / 32, 1 / 16, 1 / 8, 1 / 4, 1 / 2, 1, 2, 3, 6, 12, 24, 36, 60, 120)
+
+
+def _metric_step(limit_m: float) -> float:
+    """The smallest step of 1, 2 or 5 times a power of ten that is at least ``limit_m``."""
+    power = 10.0 ** math.floor(math.log10(limit_m))
+    return next(m * power for m in (1, 2, 5, 10) if m * power >= limit_m * (1 - 1e-9))
+
+
+def uncertain_length(distance_m: float, low_m: float | None, high_m: float | None,
+                     units: str = "metric", fraction: int = 16) -> UncertainLength:
+    """A distance with its range (``low_m`` to ``high_m``, e.g. from the VF tolerance) shown
+    no finer than the range allows: rounded to a step of at least a tenth of the +/- half
+    width (1, 2 or 5 times a power of ten in metric; a tape fraction, inches, feet in
+    imperial), the +/- rounded up and the range's ends outwards to that step. Without a
+    range the distance is shown in full (:func:`length`)."""
+    half = None
+    if None not in (low_m, high_m) and all(math.isfinite(v) for v in (distance_m, low_m, high_m)):
+        half = max(distance_m - low_m, high_m - distance_m)
+    if not half or half <= 0:
+        return UncertainLength(length(distance_m, units, fraction), "",
+                               length(low_m, units, fraction), length(high_m, units, fraction))
+    if units == "imperial":
+        inches = half / 0.0254 / 10
+        usable = [s for s in _INCH_STEPS if s >= 1 / fraction]
+        step_in = next((s for s in usable if s >= inches * (1 - 1e-9)), None)
+        if step_in is None:  # beyond ten feet a step: whole multiples of 10 ft
+            step_in = 120 * math.ceil(inches / 120)
+        step = step_in * 0.0254
+
+        def shown(v: float) -> str:
+            return length(v, units, fraction)
+    else:
+        step = _metric_step(half / 10)
+        a = abs(distance_m)
+        scale, unit = (1e-3, "mm") if a < 1.0 else (1.0, "m") if a < 1000.0 else (1e3, "km")
+        decimals = max(0, math.ceil(-math.log10(step / scale) - 1e-9))
+
+        def shown(v: float) -> str:
+            return f"{v / scale:.{decimals}f} {unit}"
+    return UncertainLength(shown(round(distance_m / step) * step),
+                           shown(math.ceil(half / step * (1 - 1e-12)) * step),
+                           shown(math.floor(low_m / step * (1 + 1e-12)) * step),
+                           shown(math.ceil(high_m / step * (1 - 1e-12)) * step))
 
 
 def length_mm(length_m: float) -> str:

@@ -26,10 +26,12 @@ async def test_one_cable_matches_cli_and_hand_value(capsys):
         await type_into(pilot, "locate-one-cable", "rg58")
         await type_into(pilot, "locate-one-delay", "245 ns")
         text = shown(app, "OneCableForm")
-        assert fmt.length(data["distance_m"]) in text  # 24.238 m
-        assert fmt.length(data["distance_low_m"]) in text
-        assert fmt.length(data["distance_high_m"]) in text
-        assert "24.238 m" in text
+        shown_d = fmt.uncertain_length(data["distance_m"], data["distance_low_m"],
+                                       data["distance_high_m"])
+        assert str(shown_d) in text and shown_d.span in text
+        # 24.238 m with rg58's catalog tolerance of 3 %: +/- 0.727 m, a tenth of it 0.073 m,
+        # so shown to the 0.1 m step with the +/- rounded up: 24.2 m +/- 0.8 m
+        assert "24.2 m +/- 0.8 m" in text and "23.5 m to 25.0 m" in text
 
 
 async def test_reverse_distance_to_delay(capsys):
@@ -59,7 +61,7 @@ async def test_bad_input_shows_error_beside_field_and_keeps_stale_result():
         error = str(field.query_one(".field-error", Static).render())
         assert error and "245 nsx" in error
         assert view.is_stale
-        assert "24.238 m" in str(view.render())  # the last good result, kept
+        assert "24.2 m +/- 0.8 m" in str(view.render())  # the last good result, kept
         assert "Out of date" in view.border_title
         await pilot.press("backspace")
         await pilot.pause()
@@ -90,8 +92,10 @@ async def test_units_switch_changes_every_shown_length():
         imperial = shown(app, "OneCableForm")
         assert " m\n" not in imperial + "\n" and " mm" not in imperial
         d = 0.66 * C0_M_PER_S * 245e-9 / 2
-        assert fmt.length(d, "imperial", 16) in imperial
-        assert "79 ft 6-1/4 in" in imperial  # 24.238 m / 0.3048 = 79.522 ft (exact foot)
+        assert str(fmt.uncertain_length(d, 0.97 * d, 1.03 * d, "imperial", 16)) in imperial
+        # 24.238 m / 0.3048 = 79 ft 6.28 in (exact foot); +/- 3 % is 28.6 in, a tenth of it
+        # 2.9 in, so the 3 in step: 79 ft 6 in, +/- 30 in
+        assert "79 ft 6 in +/- 2 ft 6 in" in imperial
 
 
 async def test_run_matches_cli(capsys):
@@ -105,8 +109,11 @@ async def test_run_matches_cli(capsys):
         await type_into(pilot, "locate-run-delay", "200 ns")
         text = shown(app, "RunForm")
         assert f"{data['segment_index'] + 1} of 3 ({data['cable_id']})" in text
-        assert fmt.length(data["offset_in_segment_m"]) in text
-        assert fmt.length(data["distance_m"]) in text
+        d, low, high = data["distance_m"], data["distance_low_m"], data["distance_high_m"]
+        offset = data["offset_in_segment_m"]
+        assert f"{fmt.uncertain_length(offset, offset - (d - low), offset + (high - d)).value} " \
+               "into it" in text
+        assert f"{fmt.uncertain_length(d, low, high)} from the instrument" in text
 
 
 async def test_run_beyond_the_end_is_an_inline_error_not_a_crash():

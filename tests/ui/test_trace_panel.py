@@ -39,7 +39,8 @@ def assert_rows_are_the_cli_events(app, events) -> None:
     assert len(found) == len(events)
     for row, e in zip(found, events, strict=True):
         assert row[1] == fmt.time(e["round_trip_delay_s"])
-        assert row[2] == fmt.length(e["distance_m"])
+        assert row[2] == fmt.uncertain_length(e["distance_m"], e["distance_low_m"],
+                                              e["distance_high_m"]).value
         assert row[3] == f"{e['size']:+.3f}"
         assert row[5] == e["kind"].replace("_", " ")
 

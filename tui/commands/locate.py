@@ -57,12 +57,6 @@ def _row(label: str, text: str) -> str:
     return f"{label:<{_LABEL}} {text}"
 
 
-def _span(low_m: float, high_m: float, units: str, fraction: int) -> str:
-    from tui import fmt
-
-    return f"{fmt.length(low_m, units, fraction)} to {fmt.length(high_m, units, fraction)}"
-
-
 def _instrument_lines(limits, units: str, fraction: int) -> list[str]:
     """Lines for a :class:`calc.locate.InstrumentLimits` (one cable and run forms)."""
     from tui import fmt
@@ -100,15 +94,18 @@ def _instrument_data(limits) -> dict:
 
 
 def describe_location(loc, source: str, units: str = "metric", fraction: int = 16) -> list[str]:
-    """Human lines for a :class:`calc.locate.Location` (shared with the TUI)."""
+    """Human lines for a :class:`calc.locate.Location` (shared with the TUI); the distance
+    to the precision its range allows (:func:`tui.fmt.uncertain_length`)."""
     from tui import fmt
 
+    shown = fmt.uncertain_length(loc.distance_m, loc.distance_low_m, loc.distance_high_m,
+                                 units, fraction)
     lines = [
         f"velocity from {source}",
         _row("round-trip delay", fmt.time(loc.round_trip_delay_s)),
         _row("velocity factor", f"{fmt.vf(loc.vf)} +/- {fmt.percent(loc.vf_tolerance)}"),
-        _row("distance", fmt.length(loc.distance_m, units, fraction)),
-        _row("range", _span(loc.distance_low_m, loc.distance_high_m, units, fraction)),
+        _row("distance", str(shown)),
+        _row("range", shown.span),
     ]
     if loc.vf_tolerance == 0.0:
         lines.append("note: no VF tolerance, so no range; give one with --tolerance '3 %'")
@@ -196,18 +193,23 @@ def describe_run(segments, units: str = "metric", fraction: int = 16) -> list[st
 
 
 def describe_run_location(loc, segments, units: str = "metric", fraction: int = 16) -> list[str]:
-    """Human lines for a :class:`calc.locate.RunLocation` (shared with the TUI)."""
+    """Human lines for a :class:`calc.locate.RunLocation` (shared with the TUI); distances
+    to the precision the range allows (:func:`tui.fmt.uncertain_length`)."""
     from tui import fmt
 
     n = len(segments)
-    where = (f"{loc.segment_index + 1} of {n} ({loc.cable_id}), "
-             f"{fmt.length(loc.offset_in_segment_m, units, fraction)} into it")
+    shown = fmt.uncertain_length(loc.distance_m, loc.distance_low_m, loc.distance_high_m,
+                                 units, fraction)
+    offset = fmt.uncertain_length(loc.offset_in_segment_m, loc.offset_in_segment_m - (
+        loc.distance_m - loc.distance_low_m), loc.offset_in_segment_m + (
+        loc.distance_high_m - loc.distance_m), units, fraction).value  # the same step
+    where = f"{loc.segment_index + 1} of {n} ({loc.cable_id}), {offset} into it"
     possible = ", ".join(str(i + 1) for i in loc.possible_segment_indices)
     lines = [
         _row("round-trip delay", fmt.time(loc.round_trip_delay_s)),
         _row("segment", where),
-        _row("distance", f"{fmt.length(loc.distance_m, units, fraction)} from the instrument"),
-        _row("range", _span(loc.distance_low_m, loc.distance_high_m, units, fraction)
+        _row("distance", f"{shown} from the instrument"),
+        _row("range", shown.span
              + ("" if len(loc.possible_segment_indices) == 1 else f" (segments {possible})")),
     ]
     if loc.beyond_nominal_end:
