@@ -53,6 +53,7 @@ from calc.constants import C0_M_PER_S
 from calc.errors import InputError
 from calc.loads import Load, check_component, component_kind, reflection_polynomials
 from calc.parse import parse
+from calc.tdr import fft_size
 
 #: Largest number of output samples (time, distance and level arrays).
 MAX_POINTS = 1 << 20
@@ -878,17 +879,6 @@ def _finish_arrivals(bounces: _Bounces, segments, junctions, settle_s: float, ri
                  for (p, size, start), d in zip(out, where, strict=True))
 
 
-def _fast_length(n: int) -> int:
-    """The smallest 2**k, 3 * 2**k or 5 * 2**(k-2) at or above ``n`` (quick FFT sizes)."""
-    best = 1 << max(0, int(n - 1).bit_length())
-    for m in (3, 5):
-        k = max(0, math.ceil(math.log2(max(n / m, 1))))
-        cand = m * (1 << k)
-        if n <= cand < best:
-            best = cand
-    return best
-
-
 def simulate(
     segments: Sequence[Segment],
     load: Load,
@@ -961,7 +951,7 @@ def simulate(
 
     # the damped transform: s = c + j w on a grid whose period holds the window and a
     # quarter more; the step is Gamma(s) H(s) / s, and x(t) = exp(c t) irfft(...) / dt
-    n_fft = _fast_length(int(math.ceil(PERIOD_PER_WINDOW * n)))
+    n_fft = fft_size(int(math.ceil(PERIOD_PER_WINDOW * n)), odd=False)
     if n_fft > MAX_FFT:
         raise InputError("--points", f"{n} points need a transform of {n_fft}; at most "
                          f"{int(MAX_FFT / PERIOD_PER_WINDOW)} points", "16384")

@@ -224,27 +224,31 @@ def time_domain(frequency_hz: np.ndarray, s11: np.ndarray, *, window: str = "kai
         notes=tuple(notes))
 
 
-def fft_size(n: int) -> int:
-    """The smallest odd 3^a 5^b 7^c at or above ``n``: a length the FFT does
-    quickly (one with a large prime factor can take many times longer), and
-    odd like scikit-rf's low-pass transform, so the two share a time grid.
-
-    One helper for the idea: :mod:`calc.simulate` has its own ``_fast_length``
-    (2^k, 3 2^k, 5 2^(k-2)) for its transform; it could call this one instead
-    (numpy's real FFT takes odd lengths; compare with its benchmark first), a
-    change left to the echo work, which owns that module.
-    """
+def fft_size(n: int, odd: bool = True) -> int:
+    """The smallest 2^a 3^b 5^c 7^d at or above ``n``: a length the FFT does quickly (one
+    with a large prime factor can take many times longer). ``odd`` (a = 0), as the
+    low-pass transform here uses, like scikit-rf's, so the two share a time grid; the
+    run predictor (:mod:`calc.simulate`) takes any such length."""
+    n = max(int(n), 1)
+    primes = (3, 5, 7) if odd else (2, 3, 5, 7)
     best = None
-    p3 = 1
-    while p3 < 3 * n or best is None:
-        p5 = p3
-        while p5 < 3 * n:
-            p7 = p5
-            while p7 < n:
-                p7 *= 7
-            best = p7 if best is None else min(best, p7)
-            p5 *= 5
-        p3 *= 3
+
+    def search(value: int, i: int) -> None:
+        nonlocal best
+        if best is not None and value >= best:
+            return
+        if value >= n:
+            best = value
+            return
+        if i == len(primes):
+            return
+        while True:  # every power of this prime, then the next prime's
+            search(value, i + 1)
+            if value >= n:
+                return
+            value *= primes[i]
+
+    search(1, 0)
     return best
 
 

@@ -141,6 +141,25 @@ def test_fft_size_is_a_quick_length_at_or_above():
         assert m == 1
 
 
+def test_fft_size_even_is_the_next_7_smooth_length():
+    # common practice: an FFT is quickest on lengths whose prime factors are all small;
+    # the run predictor (calc.simulate) takes any 2^a 3^b 5^c 7^d, the smallest at or
+    # above n, checked here against every length in between
+    from calc.tdr import fft_size
+
+    def smooth(m: int) -> bool:
+        for p in (2, 3, 5, 7):
+            while m % p == 0:
+                m //= p
+        return m == 1
+
+    for n in (1, 2, 11, 97, 5120, 20481, 65537, 1310721):
+        m = fft_size(n, odd=False)
+        assert m >= n and smooth(m)
+        assert not any(smooth(k) for k in range(n, m))
+    assert fft_size(5120, odd=False) == 5120  # 4096 points, 1.25 periods: 2^10 x 5
+
+
 @pytest.mark.parametrize("kwargs, field", [
     ({"band_hz": (2e9, None)}, "--band"),
     ({"dc_value": 1.5}, "--dc"),
