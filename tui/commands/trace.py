@@ -489,33 +489,6 @@ def _back_to_line(e) -> bool:
     return e.level_before * e.size < 0 and abs(e.level_after) < 0.5 * abs(e.level_before)
 
 
-def _where(e, units: str, fraction: int) -> str:
-    """The second line of an event: range, segment, or past the end."""
-    from tui import fmt
-
-    if e.distance_m is None:
-        return ""
-    if e.beyond_end:
-        return "past the far end of the described run" + \
-            (" (at the end, within the cables' tolerance)" if e.at_far_end else "")
-    parts = []
-    if e.distance_low_m is not None and e.distance_high_m is not None \
-            and e.distance_high_m > e.distance_low_m:
-        parts.append(f"{fmt.length(e.distance_low_m, units, fraction)} to "
-                     f"{fmt.length(e.distance_high_m, units, fraction)}")
-    if e.joint_index is not None:
-        parts.append(f"at or near the joint of segments {e.joint_index + 1} and "
-                     f"{e.joint_index + 2}")
-    elif e.segment_index is not None:
-        parts.append(f"segment {e.segment_index + 1} ({e.cable_id}), "
-                     f"{fmt.length(e.offset_in_segment_m, units, fraction)} into it")
-    if e.at_far_end:
-        parts.append("at the far end")
-    if e.loss_delay_s > 0:
-        parts.append(f"placed {fmt.time(e.loss_delay_s, 3)} earlier for the loss's slower edge")
-    return "; ".join(parts)
-
-
 def describe(info: dict, notes: list[str], analysis, units: str, fraction: int) -> list[str]:
     """Human lines for an analysis (shared with the TUI)."""
     from tui import fmt
@@ -550,7 +523,7 @@ def describe(info: dict, notes: list[str], analysis, units: str, fraction: int) 
             dist = "-" if e.distance_m is None else fmt.length(e.distance_m, units, fraction)
             lines.append(f"{i:>2}  {fmt.time(e.round_trip_delay_s):>10}  {dist:>15}  "
                          f"{e.size:+7.3f}  {z:>7}  {_kind_text(e.kind):<17} {e.confidence:4.2f}")
-            where = _where(e, units, fraction)
+            where = fmt.event_place(e, units, fraction)
             for text in ([where] if where else []) + [describe_event(e, a.z0_ohm, a.events)]:
                 lines += textwrap.wrap(text, _WIDTH, initial_indent="    ",
                                        subsequent_indent="    ")

@@ -54,7 +54,7 @@ def verdicts(comparison, units: str, fraction: int) -> dict[int, str]:
 
 def trace_shown(result, units: str, fraction: int) -> TraceShown:
     """Everything the trace view draws for one analysed trace."""
-    from tui.commands.trace import _where, describe_event
+    from tui.commands.trace import describe_event
     from tui.panels.trace.trace_form import distance_axis, rho_trace
     from tui.widgets.trace_plot import Mark, PlotData
 
@@ -69,7 +69,7 @@ def trace_shown(result, units: str, fraction: int) -> TraceShown:
         row = (key, fmt.time(e.round_trip_delay_s), dist, f"{e.size:+.3f}",
                _z(e.impedance_ohm), _kind(e.kind))
         rows.append((e.round_trip_delay_s, row + ((said.get(id(e), ""),) if c else ())))
-        where = _where(e, units, fraction)
+        where = fmt.event_place(e, units, fraction)
         details[key] = (f"{key}: {where + '; ' if where else ''}"
                         f"{describe_event(e, a.z0_ohm, events)}")
         if e.distance_m is not None:
