@@ -226,13 +226,13 @@ async def test_ctrl_r_moves_between_the_pages_and_the_key_bar_says_so():
         app.query_one("#trace-file").focus()
         await pilot.pause()
         keys = {b.binding.description for b in app.active_bindings.values()}
-        assert "More options" in keys and "Back to the file" not in keys
+        assert "Options" in keys and "Back" not in keys
         await pilot.press("ctrl+r")
         await pilot.pause()
         assert app.focused.id == "trace-tolerance"
         assert not app.query_one("#trace-job").display
         keys = {b.binding.description for b in app.active_bindings.values()}
-        assert "Back to the file" in keys and "More options" not in keys
+        assert "Back" in keys and "Options" not in keys
         await pilot.press("ctrl+r")
         await pilot.pause()
         assert app.focused.id == "trace-file"

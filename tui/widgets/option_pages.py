@@ -31,7 +31,7 @@ MORE_KEY = "ctrl+r"
 
 def page_bindings(prefix: str, back_title: str) -> list[Binding]:
     """Ctrl+R to the options page and back; the key bar shows the way that is open."""
-    return [Binding(MORE_KEY, "options_page(True)", "More options", id=f"{prefix}.more"),
+    return [Binding(MORE_KEY, "options_page(True)", "Options", id=f"{prefix}.more"),
             Binding(MORE_KEY, "options_page(False)", back_title, id=f"{prefix}.back")]
 
 

@@ -65,7 +65,7 @@ class RunForm(PagedCommandForm):
     LOG_KIND = "simulate"
     THREADED = True
     HELP_TITLE = "Echo: whole run"
-    BINDINGS = page_bindings("echo.run", "Back to the run")
+    BINDINGS = page_bindings("echo.run", "Back")
     MORE_HEADING = "more options for the prediction (^r back to the run):"
     ERROR_FIELDS = {"--rise-time": "echo-run-edge", "--pulse-width": "echo-run-edge"}
 

@@ -138,7 +138,7 @@ class TraceForm(PagedCommandForm):
     LOG_KIND = "trace"
     THREADED = True
     HELP_TITLE = "Trace: the file and its reading"
-    BINDINGS = page_bindings("trace", "Back to the file")
+    BINDINGS = page_bindings("trace", "Back")
     ERROR_FIELDS = {"--cable/--vf/--run": "trace-on", "--run": "trace-on", "--cable": "trace-on",
                     "--vf": "trace-on", "--expect-run/--expect-load": "trace-expect-run",
                     "trace": "trace-file", "--time-unit": "trace-axis-unit",
