@@ -361,3 +361,14 @@ def parse_band(text: str, field: str) -> tuple[float, float]:
     if not lo < hi:
         raise InputError(field, f"{t!r}: the low edge must be below the high edge", example)
     return lo, hi
+
+
+#: A level typed in volts ends in a voltage unit (``0.67 V``, ``670 mV``).
+_IN_VOLTS = re.compile(r"[0-9.]\s*[munµμk]?V\s*$")
+
+
+def parse_level(text: str, field: str) -> tuple[float, bool]:
+    """A level read off a trace, as typed: ``(volts, True)`` for ``"0.67 V"``, or
+    ``(rho, False)`` for a fraction of the incident step (``"-0.33"``)."""
+    in_volts = bool(_IN_VOLTS.search(text.strip())) if isinstance(text, str) else False
+    return parse(text, field, "voltage" if in_volts else "ratio"), in_volts

@@ -319,3 +319,41 @@ def wrapped(line: str, indent: int = 19, width: int = 79) -> list[str]:
     import textwrap
 
     return textwrap.wrap(line, width=width, subsequent_indent=" " * indent) or [""]
+
+
+def event_distance(e, units: str = "metric", fraction: int = 16,
+                   distance_m: float | None = None) -> UncertainLength:
+    """An event's distance (or ``distance_m``, a position on the same reading such as its
+    offset into a segment) to the precision its range allows (:func:`uncertain_length`)."""
+    d = e.distance_m if distance_m is None else distance_m
+    if e.distance_low_m is None or e.distance_high_m is None:
+        return uncertain_length(d, None, None, units, fraction)
+    return uncertain_length(d, d - (e.distance_m - e.distance_low_m),
+                            d + (e.distance_high_m - e.distance_m), units, fraction)
+
+
+def event_place(e, units: str = "metric", fraction: int = 16) -> str:
+    """Where a found trace event lies (a :class:`calc.events.Event`, placed): its
+    distance with its range, the segment or joint, or past the end; "" if it was not
+    placed. The second line of an event in ``halftrip trace`` and the Trace panel's
+    detail."""
+    if e.distance_m is None:
+        return ""
+    if e.beyond_end:
+        return "past the far end of the described run" + \
+            (" (at the end, within the cables' tolerance)" if e.at_far_end else "")
+    parts = []
+    shown = event_distance(e, units, fraction)
+    if shown.plus_minus:
+        parts.append(f"{shown} ({shown.span})")
+    if e.joint_index is not None:
+        parts.append(f"at or near the joint of segments {e.joint_index + 1} and "
+                     f"{e.joint_index + 2}")
+    elif e.segment_index is not None:
+        offset = event_distance(e, units, fraction, e.offset_in_segment_m).value
+        parts.append(f"segment {e.segment_index + 1} ({e.cable_id}), {offset} into it")
+    if e.at_far_end:
+        parts.append("at the far end")
+    if e.loss_delay_s > 0:
+        parts.append(f"placed {time(e.loss_delay_s, 3)} earlier for the loss's slower edge")
+    return "; ".join(parts)

@@ -13,17 +13,12 @@ gives the impedance it implies and the likely kind of fault.
 
 from __future__ import annotations
 
-import re
-
 from tui.commands.common import add_output_options, catalog, emit, warn_hazards
 
 NAME = "echo"
 HELP = ("what a load reflects (Gamma, return loss, VSWR, step signature), or the load an "
         "observed step implies")
 LOGGABLE = True
-
-_VOLTS = re.compile(r"[0-9.]\s*[munµμk]?V\s*$")
-
 
 def add_arguments(parser) -> None:
     parser.add_argument("--z0", required=True, metavar="Z",
@@ -223,17 +218,18 @@ def _sign_text(sign: str) -> str:
 def _level(text: str, field: str, incident: float | None) -> float:
     """rho from a fraction, or from the level in volts the trace steps to."""
     from calc.errors import InputError
-    from calc.parse import parse
+    from calc.parse import parse_level
 
-    if _VOLTS.search(text.strip()):
+    level, in_volts = parse_level(text, field)
+    if in_volts:
         if incident is None:
             raise InputError("--incident", f"{field} in volts needs the incident step in volts",
                              "1 V")
-        return parse(text, field, "voltage") / incident - 1.0
+        return level / incident - 1.0
     if incident is not None:
         raise InputError(field, "with --incident give the level in volts the trace steps to",
                          "0.67 V")
-    return parse(text, field, "ratio")
+    return level
 
 
 def _backwards(args, z0: float) -> tuple[dict, list[str]]:

@@ -489,45 +489,6 @@ def _back_to_line(e) -> bool:
     return e.level_before * e.size < 0 and abs(e.level_after) < 0.5 * abs(e.level_before)
 
 
-def event_distance(e, units: str, fraction: int, distance_m: float | None = None):
-    """An event's distance (or ``distance_m``, a position on the same reading such as its
-    offset into a segment) to the precision its range allows: a
-    :class:`tui.fmt.UncertainLength` (shared with the TUI)."""
-    from tui import fmt
-
-    d = e.distance_m if distance_m is None else distance_m
-    if e.distance_low_m is None or e.distance_high_m is None:
-        return fmt.uncertain_length(d, None, None, units, fraction)
-    return fmt.uncertain_length(d, d - (e.distance_m - e.distance_low_m),
-                                d + (e.distance_high_m - e.distance_m), units, fraction)
-
-
-def _where(e, units: str, fraction: int) -> str:
-    """The second line of an event: range, segment, or past the end."""
-    from tui import fmt
-
-    if e.distance_m is None:
-        return ""
-    if e.beyond_end:
-        return "past the far end of the described run" + \
-            (" (at the end, within the cables' tolerance)" if e.at_far_end else "")
-    parts = []
-    shown = event_distance(e, units, fraction)
-    if shown.plus_minus:
-        parts.append(f"{shown} ({shown.span})")
-    if e.joint_index is not None:
-        parts.append(f"at or near the joint of segments {e.joint_index + 1} and "
-                     f"{e.joint_index + 2}")
-    elif e.segment_index is not None:
-        offset = event_distance(e, units, fraction, e.offset_in_segment_m).value
-        parts.append(f"segment {e.segment_index + 1} ({e.cable_id}), {offset} into it")
-    if e.at_far_end:
-        parts.append("at the far end")
-    if e.loss_delay_s > 0:
-        parts.append(f"placed {fmt.time(e.loss_delay_s, 3)} earlier for the loss's slower edge")
-    return "; ".join(parts)
-
-
 def describe(info: dict, notes: list[str], analysis, units: str, fraction: int) -> list[str]:
     """Human lines for an analysis (shared with the TUI)."""
     from tui import fmt
@@ -559,10 +520,10 @@ def describe(info: dict, notes: list[str], analysis, units: str, fraction: int) 
                     continue
             z = ("-" if e.kind == "re_reflection" else "open" if e.impedance_ohm == float("inf")
                  else f"{e.impedance_ohm:.4g}")  # a bounce's level is no impedance of the line
-            dist = "-" if e.distance_m is None else event_distance(e, units, fraction).value
+            dist = "-" if e.distance_m is None else fmt.event_distance(e, units, fraction).value
             lines.append(f"{i:>2}  {fmt.time(e.round_trip_delay_s):>10}  {dist:>15}  "
                          f"{e.size:+7.3f}  {z:>7}  {_kind_text(e.kind):<17} {e.confidence:4.2f}")
-            where = _where(e, units, fraction)
+            where = fmt.event_place(e, units, fraction)
             for text in ([where] if where else []) + [describe_event(e, a.z0_ohm, a.events)]:
                 lines += textwrap.wrap(text, _WIDTH, initial_indent="    ",
                                        subsequent_indent="    ")

@@ -90,6 +90,17 @@ def angle_or_length(text: str, label: str) -> tuple[str, float]:
     return _first_fitting(text, label, ("angle", "length"), "90 deg, 0.25 wl (or 339 mm)")
 
 
+def axis_unit(text: str, label: str) -> tuple[str, str]:
+    """The unit of a trace file's first column: ``("time", "ns")`` or
+    ``("distance", "ft")``, told apart by its dimension."""
+    t = text.strip()
+    try:
+        kind, _one = _first_fitting(f"1 {t}", label, ("time", "length"), "ns (or m)")
+    except InputError:
+        raise InputError(label, f"{t!r}: not a time or length unit", "ns") from None
+    return ("time" if kind == "time" else "distance"), t
+
+
 def text(text: str, label: str) -> str:
     """The text as typed (for a field the core parses itself)."""
     return text.strip()

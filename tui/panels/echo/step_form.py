@@ -13,10 +13,9 @@ from tui.widgets.result_view import ResultView
 def read_level(text: str, label: str) -> str:
     """A step as typed, ``-0.33`` (rho) or ``0.67 V`` (the level the trace steps to),
     checked as the echo command reads it."""
-    from calc.parse import parse
-    from tui.commands.echo import _VOLTS
+    from calc.parse import parse_level
 
-    parse(text, label, "voltage" if _VOLTS.search(text.strip()) else "ratio")
+    parse_level(text, label)
     return text.strip()
 
 

@@ -35,7 +35,7 @@ class Panel(Vertical):
     """The trace form (file, placement, expectation) over the plot and events."""
 
     BINDINGS = [
-        Binding("ctrl+o", "pick_file", "Open a trace file", id="trace.open"),
+        Binding("ctrl+o", "pick_file", "Open file", id="trace.open"),
     ]
 
     def __init__(self, id: str | None = None) -> None:

@@ -11,18 +11,27 @@ analysis of an unchanged file is kept while only the expectation changes.
 from __future__ import annotations
 
 import copy
+import re
 from dataclasses import dataclass
 
 from textual.app import ComposeResult
 
 from calc.errors import InputError
-from tui.widgets.command_form import CommandForm
 from tui.widgets.field import Field
-from tui.widgets.readers import as_text, load_reader, run_reader
+from tui.widgets.option_pages import PagedCommandForm, page_bindings
+from tui.widgets.readers import as_text, axis_unit, choice, load_reader, run_reader, text
 from tui.widgets.trace_view import TraceShown, TraceView
 
 FILE_LABEL = "file"
 ON_EXAMPLE = "rg58, 0.66 or 2 m:rg58, 45 m:hardline-50-half"
+WINDOW_EXAMPLE = "kaiser 6, hann or none"
+#: A Touchstone file by its name, as the reader tells it (``.s1p``, ``.s2p``...).
+_SWEEP_NAME = re.compile(r"\.s\d+p$", re.IGNORECASE)
+#: Reading options that apply to one kind of file only (the rest apply to both).
+TEXT_ONLY = ("trace-axis-unit", "trace-level-unit", "trace-incident")
+SWEEP_ONLY = ("trace-window", "trace-band", "trace-dc")
+#: The options given to the command as typed (the command reads them).
+AS_TYPED = ("tolerance", "z0", "rise-time", "level-unit", "band", "dc")
 
 
 @dataclass(frozen=True, eq=False)
@@ -66,6 +75,23 @@ def read_vf_text(text: str, label: str) -> str:
     return text.strip()
 
 
+def read_window(text: str, label: str) -> tuple[str, str | None]:
+    """The sweep's window: ``("kaiser", "8")`` for ``kaiser 8`` (the beta; the
+    command checks its range), ``("hann", None)``, ``("none", None)``."""
+    word, _, rest = text.strip().partition(" ")
+    name = choice("kaiser", "hann", "none")(word, label)
+    beta = rest.strip().removeprefix("beta").strip() or None
+    if beta is not None:
+        try:
+            float(beta)
+        except ValueError:
+            raise InputError(label, f"{beta!r} is not a number for the Kaiser beta",
+                             WINDOW_EXAMPLE) from None
+        if name != "kaiser":
+            raise InputError(label, "only the Kaiser window takes a beta", WINDOW_EXAMPLE)
+    return name, beta
+
+
 def _file_key(path: str) -> tuple:
     """The file as it is now (a changed or rewritten file is read again)."""
     from pathlib import Path
@@ -77,35 +103,79 @@ def _file_key(path: str) -> tuple:
     return (path, st.st_mtime_ns, st.st_size)
 
 
-class TraceForm(CommandForm):
+class TraceForm(PagedCommandForm):
     """File, placement (cable, VF or run), expected load and run; the distance-axis
-    VF field shows when a file drawn against distance needs it."""
+    VF field shows when a file drawn against distance needs it. The reading
+    options wait on the second page (Ctrl+R), those for a sweep or for a text
+    trace as the file is one or the other."""
 
     COMMAND = "trace"
     PREFIX = "trace"
     LOG_KIND = "trace"
     THREADED = True
+    HELP_TITLE = "Trace: the file and its reading"
+    BINDINGS = page_bindings("trace", "Back")
     ERROR_FIELDS = {"--cable/--vf/--run": "trace-on", "--run": "trace-on", "--cable": "trace-on",
-                    "--vf": "trace-on", "--z0": "trace-on",
-                    "--expect-run/--expect-load": "trace-expect-run",
-                    "trace": "trace-file", "--incident": "trace-file"}
-    #: (file, placement, axis VF) -> what analyse_file returned.
+                    "--vf": "trace-on", "--expect-run/--expect-load": "trace-expect-run",
+                    "trace": "trace-file", "--time-unit": "trace-axis-unit",
+                    "--distance-unit": "trace-axis-unit", "--kaiser-beta": "trace-window"}
+    #: (file, every option but the expectation) -> what analyse_file returned.
     _analysed: tuple | None = None
 
     def compose(self) -> ComposeResult:
         catalog = (lambda: self.app.catalog)  # noqa: E731
-        yield Field("trace-file", FILE_LABEL, reader=read_path,
-                    placeholder="a .csv or .s1p file (Ctrl+O picks one)")
-        yield Field("trace-on", "placed on", reader=read_placement, placeholder=ON_EXAMPLE)
-        yield Field("trace-expect-load", "expected load", reader=as_text(load_reader(catalog)),
-                    optional=True, placeholder="to compare: open, 50 ohm...")
-        yield Field("trace-expect-run", "expected run", reader=as_text(run_reader(catalog)),
-                    optional=True, placeholder="the run placed on, unless given")
         axis = Field("trace-axis-vf", "axis VF", reader=read_vf_text, optional=True,
                      placeholder="VF the instrument drew its distance axis with")
         axis.display = False
-        yield axis
+        yield from self.pages([
+            Field("trace-file", FILE_LABEL, reader=read_path,
+                  placeholder="a .csv or .s1p file (Ctrl+O picks one)"),
+            Field("trace-on", "placed on", reader=read_placement, placeholder=ON_EXAMPLE),
+            Field("trace-expect-load", "expected load", reader=as_text(load_reader(catalog)),
+                  optional=True, placeholder="to compare: open, 50 ohm..."),
+            Field("trace-expect-run", "expected run", reader=as_text(run_reader(catalog)),
+                  optional=True, placeholder="the run placed on, unless given"),
+            axis,
+        ], [
+            Field("trace-tolerance", "VF tolerance", kind="tolerance", optional=True,
+                  placeholder="the cable's, e.g. 3 %"),
+            Field("trace-z0", "reference Z0", kind="impedance", optional=True,
+                  placeholder="the first cable's, or 50 ohm"),
+            Field("trace-rise-time", "rise time", kind="time", optional=True,
+                  placeholder="measured from the trace, e.g. 0.5 ns"),
+            Field("trace-axis-unit", "time/distance unit", reader=axis_unit, optional=True,
+                  placeholder="when the file does not say: ns, m, ft"),
+            Field("trace-level-unit", "level unit", reader=text, optional=True,
+                  placeholder="when the file does not say: V, mV, rho, %"),
+            Field("trace-incident", "incident edge", optional=True,
+                  reader=choice("auto", "in-trace", "at-zero"),
+                  placeholder="auto; in-trace, or at-zero (reflections only)"),
+            Field("trace-window", "window", reader=read_window, optional=True,
+                  placeholder=f"{WINDOW_EXAMPLE} (default kaiser 6)"),
+            Field("trace-band", "band", reader=text, optional=True,
+                  placeholder="the whole sweep, or e.g. 1 MHz..2 GHz"),
+            Field("trace-dc", "state at DC", reader=text, optional=True,
+                  placeholder="extrapolated; or open, short, 50 ohm"),
+        ])
         yield TraceView(("#",), empty_text="no trace yet", id="trace-view")
+
+    # -- which reading options apply ----------------------------------------
+    def is_sweep(self, path: str) -> bool:
+        """A Touchstone sweep by its name, or as the last analysis read it."""
+        last = self.last_result
+        if last is not None and last[0].info.get("file") == path:
+            return last[0].info.get("format") == "touchstone"
+        return bool(_SWEEP_NAME.search(path))
+
+    def read_fields(self):
+        path = self.field("trace-file").text.strip()
+        sweep = self.is_sweep(path)
+        for f in self.more_fields():
+            f.display = f.field_name not in (TEXT_ONLY if sweep else SWEEP_ONLY)
+        kind = "a Touchstone sweep" if sweep else "a text trace"
+        self.query_one(".options-heading").update(
+            f"reading options for {kind} (^r back to the file):")
+        return super().read_fields()
 
     def result_view(self) -> TraceView:
         return self.query_one(TraceView)
@@ -117,6 +187,15 @@ class TraceForm(CommandForm):
         argv = [f"--{placement_option(on)}={on}"] if on else []
         if texts["axis-vf"]:
             argv.append(f"--axis-vf={texts['axis-vf']}")
+        argv += [f"--{name}={texts[name]}" for name in AS_TYPED if texts[name]]
+        if texts["axis-unit"]:
+            axis, unit = axis_unit(texts["axis-unit"], "time/distance unit")
+            argv.append(f"--{axis}-unit={unit}")
+        if texts["incident"]:
+            argv.append(f"--incident={choice('auto', 'in-trace', 'at-zero')(texts['incident'], '')}")
+        if texts["window"]:
+            window, beta = read_window(texts["window"], "window")
+            argv += [f"--window={window}"] + ([f"--kaiser-beta={beta}"] if beta else [])
         if texts["expect-load"]:
             argv.append(f"--expect-load={texts['expect-load']}")
             run = texts["expect-run"] or (on if placement_option(on) == "run" else "")
@@ -129,7 +208,8 @@ class TraceForm(CommandForm):
         from tui.commands.trace import analyse_file, compare_with_expected
 
         ns = self.options(argv)
-        key = (_file_key(ns.file), ns.run, ns.vf, ns.cable, ns.axis_vf)
+        key = (_file_key(ns.file), repr(sorted((k, v) for k, v in vars(ns).items()
+                                               if k not in ("expect_run", "expect_load"))))
         cached = self._analysed
         if cached is not None and cached[0] == key:
             setup, info, notes, analysis = cached[1]

@@ -54,13 +54,7 @@ def verdicts(comparison, units: str, fraction: int) -> dict[int, str]:
 
 def trace_shown(result, units: str, fraction: int) -> TraceShown:
     """Everything the trace view draws for one analysed trace."""
-    from tui.commands.trace import (
-        _where,
-        describe_event,
-        distance_axis,
-        event_distance,
-        rho_trace,
-    )
+    from tui.commands.trace import describe_event, distance_axis, rho_trace
     from tui.widgets.trace_plot import Mark, PlotData
 
     a, c = result.analysis, result.comparison
@@ -70,11 +64,11 @@ def trace_shown(result, units: str, fraction: int) -> TraceShown:
     marks, details = [], {}
     for i, e in enumerate(events, start=1):
         key = str(i)
-        dist = "-" if e.distance_m is None else event_distance(e, units, fraction).value
+        dist = "-" if e.distance_m is None else fmt.event_distance(e, units, fraction).value
         row = (key, fmt.time(e.round_trip_delay_s), dist, f"{e.size:+.3f}",
                _z(e.impedance_ohm), _kind(e.kind))
         rows.append((e.round_trip_delay_s, row + ((said.get(id(e), ""),) if c else ())))
-        where = _where(e, units, fraction)
+        where = fmt.event_place(e, units, fraction)
         details[key] = (f"{key}: {where + '; ' if where else ''}"
                         f"{describe_event(e, a.z0_ohm, events)}")
         if e.distance_m is not None:
