@@ -56,7 +56,10 @@ async def settled(pilot, timeout: float = 20.0) -> None:
                                                                 WorkerState.RUNNING)
                        for w in pilot.app.workers)
 
+    await pilot.pause()  # the typed text's Changed message reaches the form first
     await wait_for(pilot, idle, timeout)
+    await pilot.app.workers.wait_for_complete()
+    await pilot.pause()  # the result's own redraws (a table fills after the text)
     await pilot.pause()
 
 

@@ -16,15 +16,15 @@ class MarkTable(DataTable):
         self.add_columns(*self.columns_text)
 
     def fill(self, rows: list[tuple[str, ...]], columns: tuple[str, ...] | None = None) -> None:
-        """Replace the rows (and the columns, if given and different), keeping the
-        highlighted number where it still exists."""
+        """Replace the rows (and the columns, if given), keeping the highlighted
+        number where it still exists. The columns are made anew each time: a
+        DataTable's columns keep the width of the widest cell they ever held, so
+        an earlier, wider result would leave the table wider than its rows."""
         keep = self.highlighted_key()
-        if columns is not None and columns != self.columns_text:
-            self.clear(columns=True)
+        self.clear(columns=True)
+        if columns is not None:
             self.columns_text = columns
-            self.add_columns(*columns)
-        else:
-            self.clear()
+        self.add_columns(*self.columns_text)
         for row in rows:
             self.add_row(*row, key=row[0])
         if keep is not None:
