@@ -6,7 +6,7 @@ update (``pytest tests/ui/test_snapshots.py --snapshot-update``)."""
 from __future__ import annotations
 
 import pytest
-from uihelp import started, wait_for
+from uihelp import started, tables_measured, wait_for
 
 from tui.app import create_app
 from tui.widgets.form import LiveForm
@@ -52,7 +52,8 @@ def before(*keys: str, trace_file: bool = False):
             raise AssertionError(_state(pilot.app)) from None
         await pilot.app.workers.wait_for_complete()
         await pilot.pause(0.3)
-        await wait_for(pilot, lambda: _settled(pilot.app), timeout=60)
+        await wait_for(pilot, lambda: _settled(pilot.app) and tables_measured(pilot.app),
+                       timeout=60)
 
     return run_before
 

@@ -59,8 +59,17 @@ async def settled(pilot, timeout: float = 20.0) -> None:
     await pilot.pause()  # the typed text's Changed message reaches the form first
     await wait_for(pilot, idle, timeout)
     await pilot.app.workers.wait_for_complete()
-    await pilot.pause()  # the result's own redraws (a table fills after the text)
+    await wait_for(pilot, lambda: tables_measured(pilot.app), timeout)
     await pilot.pause()
+
+
+def tables_measured(app) -> bool:
+    """Every DataTable has measured its new rows: it sizes its columns when its message
+    queue is idle, which on a loaded machine comes after the rest of the screen."""
+    from textual.widgets import DataTable
+
+    return not any(t._require_update_dimensions or t._updated_cells
+                   for t in app.screen.query(DataTable))
 
 
 def cli_output(capsys, *argv) -> tuple[int, str, str]:

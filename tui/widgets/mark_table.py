@@ -17,14 +17,19 @@ class MarkTable(DataTable):
 
     def fill(self, rows: list[tuple[str, ...]], columns: tuple[str, ...] | None = None) -> None:
         """Replace the rows (and the columns, if given), keeping the highlighted
-        number where it still exists. The columns are made anew each time: a
-        DataTable's columns keep the width of the widest cell they ever held, so
-        an earlier, wider result would leave the table wider than its rows."""
+        number where it still exists. The columns are made anew each time, as wide
+        as their widest cell: a DataTable's columns otherwise keep the width of the
+        widest cell they ever held, and measure new rows only when idle (a
+        screen drawn before that shows cut-off cells)."""
+        from rich.cells import cell_len
+
         keep = self.highlighted_key()
         self.clear(columns=True)
         if columns is not None:
             self.columns_text = columns
-        self.add_columns(*self.columns_text)
+        for i, label in enumerate(self.columns_text):  # widths known now, not when idle
+            self.add_column(label, width=max([cell_len(label)]
+                                             + [cell_len(str(r[i])) for r in rows if i < len(r)]))
         for row in rows:
             self.add_row(*row, key=row[0])
         if keep is not None:
