@@ -27,6 +27,8 @@ class HalftripCommands(Provider):
                         partial(app.set_units, "imperial", fraction),
                         "the tape fraction imperial lengths are rounded to"))
         out.append(("Units: metres", partial(app.set_units, "metric"), "lengths in m and mm"))
+        out.append(("Safety: mark the shown line possibly live", app.action_mark_possibly_live,
+                    "keeps the warning line on for this panel's line; again to unmark (!)"))
         out.append(("Theme: switch dark / light", app.action_switch_theme, "(d)"))
         out.append(("Help: every key", app.action_help, "(F1)"))
         return out

@@ -145,3 +145,21 @@ async def test_marking_a_line_possibly_live_shows_the_warning_line():
         assert "possibly live" in str(warning.render())
         await pilot.press("exclamation_mark")
         await wait_for(pilot, lambda: not warning.display)
+
+
+async def test_the_palette_marks_a_line_possibly_live_too():
+    # the same as "!" (common practice: every key's action is also in the palette)
+    from tui.palette import HalftripCommands
+
+    app = create_app(start_panel="cables")
+    async with app.run_test(size=SIZE) as pilot:
+        await started(pilot)
+        warning = app.query_one("#cables").query_one(WarningLine)
+        commands = {t: cb for t, cb, _help in HalftripCommands(app.screen)._commands()}
+        mark = next(cb for t, cb in commands.items() if "possibly live" in t)
+        await type_into(pilot, "cables-filter", "rg174")  # a cable with no hazard tag
+        await wait_for(pilot, lambda: app.query_one("#cables").selected() is not None)
+        assert not warning.display
+        mark()
+        await wait_for(pilot, lambda: warning.display)
+        assert "possibly live" in str(warning.render())
