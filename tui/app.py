@@ -143,7 +143,7 @@ class HalftripApp(App[int]):
         if found:
             return found.first()
         spec = next(s for s in self.PANELS if s.name == name)
-        widget = spec.module.Panel(id=name)
+        widget = spec.panel_class()(id=name)
         await switcher.mount(widget)
         return widget
 

@@ -13,8 +13,10 @@ listing this package, so adding a panel is adding a module):
     (F1 is help, F9 the unit switch);
   - ``TITLE``: its name on screen, one plain word of the trade (``"Locate"``);
   - ``DESCRIPTION``: one line for the help screen and the command palette;
-  - ``Panel``: a Textual widget class, built with ``Panel(id=name)``, that
-    composes the panel.
+  - ``PANEL``: where the panel's widget class is, ``"module:Class"``
+    (``"tui.panels.locate.panel:Panel"``), built with ``Panel(id=name)``; it
+    is imported when the panel is first mounted, after the first frame (a
+    module may define the class itself as ``Panel`` instead).
 
   Optional:
 
@@ -28,10 +30,11 @@ listing this package, so adding a panel is adding a module):
     from the panel bar too); :class:`tui.widgets.modes.Modes` provides them.
 
 * The module is imported at start-up, before the first frame: keep its top
-  level light (Textual only). Import the core, numpy and the catalog inside
-  methods, or in a worker; name a mode's form as ``"module:Class"`` so it is
-  imported when the mode is built. Panels are mounted when first opened (the
-  first one right after the first frame).
+  level to those constants (no imports beyond the standard library). The
+  widget module named by ``PANEL`` may import Textual; import the core, numpy
+  and the catalog inside methods, or in a worker; name a mode's form as
+  ``"module:Class"`` so it is imported when the mode is built. Panels are
+  mounted when first opened (the first one right after the first frame).
 * A panel computes nothing itself: it parses its fields with ``calc.parse``,
   calls the core, and formats with ``tui.fmt``, exactly as the CLI command
   for the same job does. :class:`tui.widgets.form.LiveForm` does the field
@@ -74,6 +77,14 @@ class PanelSpec:
     def function_key(self) -> str:
         return f"f{self.order + 1}"
 
+    def panel_class(self) -> type:
+        """The panel's widget class (imported now, if the module names it in ``PANEL``)."""
+        cls = getattr(self.module, "Panel", None)
+        if cls is None:
+            where, _, attr = self.module.PANEL.partition(":")
+            cls = getattr(importlib.import_module(where), attr)
+        return cls
+
 
 class PanelContractError(TypeError):
     """A panel module does not follow the contract above."""
@@ -104,8 +115,9 @@ def _module_names() -> list[str]:
 
 
 def _spec(name: str, module: ModuleType) -> PanelSpec:
-    missing = [a for a in ("KEY", "ORDER", "TITLE", "DESCRIPTION", "Panel")
-               if not hasattr(module, a)]
+    missing = [a for a in ("KEY", "ORDER", "TITLE", "DESCRIPTION") if not hasattr(module, a)]
+    if not (hasattr(module, "PANEL") or hasattr(module, "Panel")):
+        missing.append("PANEL")
     if missing:
         raise PanelContractError(f"tui/panels/{name}.py lacks {', '.join(missing)}")
     key, order = module.KEY, module.ORDER

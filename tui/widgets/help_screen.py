@@ -56,7 +56,7 @@ def key_table(app) -> list[tuple[str, list[tuple[str, str]]]]:
     seen: set[type] = {type(app)}
     widget_classes = []
     for spec in app.PANELS:
-        widget_classes.append((spec.title, spec.module.Panel))
+        widget_classes.append((spec.title, spec.panel_class()))
     for node in app.screen.walk_children():
         widget_classes.append((None, type(node)))
     for title, cls in widget_classes:

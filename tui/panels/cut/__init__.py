@@ -5,13 +5,6 @@ long, and stubs. Each mode is the matching CLI command's options as fields
 
 from __future__ import annotations
 
-from textual.app import ComposeResult
-from textual.binding import Binding
-from textual.containers import Vertical
-
-from tui.widgets.modes import Modes
-from tui.widgets.warning_line import WarningLine
-
 KEY = "x"
 ORDER = 2
 TITLE = "Cut"
@@ -51,18 +44,5 @@ MODES = [
 ]
 
 
-class Panel(Vertical):
-    """Five ways to get a length to cut, one mode each."""
-
-    BINDINGS = [Binding(str(i + 1), f"mode({i})", f"Mode: {title}", id=f"cut.mode.{name}",
-                        show=False) for i, (name, title, _w) in enumerate(MODES)]
-
-    def __init__(self, id: str | None = None) -> None:
-        super().__init__(id=id, classes="panel")
-
-    def compose(self) -> ComposeResult:
-        yield WarningLine()
-        yield Modes(MODES, "cut")
-
-    async def action_mode(self, index: int) -> None:
-        await self.query_one(Modes).action_mode(index)
+#: The widget, imported when the panel is first mounted (after the first frame).
+PANEL = "tui.panels.cut.panel:Panel"

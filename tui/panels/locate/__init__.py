@@ -3,13 +3,6 @@ read from both ends, and measuring a cable's velocity factor."""
 
 from __future__ import annotations
 
-from textual.app import ComposeResult
-from textual.binding import Binding
-from textual.containers import Vertical
-
-from tui.widgets.modes import Modes
-from tui.widgets.warning_line import WarningLine
-
 KEY = "l"
 ORDER = 1
 TITLE = "Locate"
@@ -30,8 +23,6 @@ DEMO = {
     "locate-vf-reading": "101.5 ns",
 }
 
-
-
 MODES = [
     ("one", "One cable", "tui.panels.locate.one_cable:OneCableForm"),
     ("run", "Run of cables", "tui.panels.locate.run:RunForm"),
@@ -40,18 +31,5 @@ MODES = [
 ]
 
 
-class Panel(Vertical):
-    """Four ways to place an event, one mode each."""
-
-    BINDINGS = [Binding(str(i + 1), f"mode({i})", f"Mode: {title}", id=f"locate.mode.{name}",
-                        show=False) for i, (name, title, _f) in enumerate(MODES)]
-
-    def __init__(self, id: str | None = None) -> None:
-        super().__init__(id=id, classes="panel")
-
-    def compose(self) -> ComposeResult:
-        yield WarningLine()
-        yield Modes(MODES, "locate")
-
-    async def action_mode(self, index: int) -> None:
-        await self.query_one(Modes).action_mode(index)
+#: The widget, imported when the panel is first mounted (after the first frame).
+PANEL = "tui.panels.locate.panel:Panel"
