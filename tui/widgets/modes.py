@@ -101,3 +101,31 @@ class Modes(Vertical):
         if 0 <= index < len(self.modes):
             await self.show(self.modes[index][0])
             self.app.focus_first_field(self.shown_widget())
+
+
+def modes_panel(panel_name: str, modes: list[tuple[str, str, object]], doc: str
+                ) -> type[Vertical]:
+    """A panel that is a caution line over :class:`Modes` (Locate, Cut, Echo): the
+    digit keys pick its modes. ``panel_name`` prefixes the bindings' ids."""
+    from textual.binding import Binding
+
+    from tui.widgets.warning_line import WarningLine
+
+    class Panel(Vertical):
+        BINDINGS = [Binding(str(i + 1), f"mode({i})", f"Mode: {title}",
+                            id=f"{panel_name}.mode.{name}", show=False)
+                    for i, (name, title, _form) in enumerate(modes)]
+
+        def __init__(self, id: str | None = None) -> None:
+            super().__init__(id=id, classes="panel")
+
+        def compose(self) -> ComposeResult:
+            yield WarningLine()
+            yield Modes(modes, panel_name)
+
+        async def action_mode(self, index: int) -> None:
+            await self.query_one(Modes).action_mode(index)
+
+    Panel.__doc__ = doc
+    Panel.__qualname__ = f"{panel_name}.Panel"
+    return Panel

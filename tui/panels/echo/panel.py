@@ -2,27 +2,7 @@
 
 from __future__ import annotations
 
-from textual.app import ComposeResult
-from textual.binding import Binding
-from textual.containers import Vertical
-
 from tui.panels.echo import MODES
-from tui.widgets.modes import Modes
-from tui.widgets.warning_line import WarningLine
+from tui.widgets.modes import modes_panel
 
-
-class Panel(Vertical):
-    """The three echo forms, one mode each, with the caution line above them."""
-
-    BINDINGS = [Binding(str(i + 1), f"mode({i})", f"Mode: {title}", id=f"echo.mode.{name}",
-                        show=False) for i, (name, title, _f) in enumerate(MODES)]
-
-    def __init__(self, id: str | None = None) -> None:
-        super().__init__(id=id, classes="panel")
-
-    def compose(self) -> ComposeResult:
-        yield WarningLine()
-        yield Modes(MODES, "echo")
-
-    async def action_mode(self, index: int) -> None:
-        await self.query_one(Modes).action_mode(index)
+Panel = modes_panel("echo", MODES, "The three echo forms, one mode each, with the caution line above them.")
