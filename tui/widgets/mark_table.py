@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+from rich.cells import cell_len
 from textual.widgets import DataTable
 
 
@@ -21,8 +22,6 @@ class MarkTable(DataTable):
         as their widest cell: a DataTable's columns otherwise keep the width of the
         widest cell they ever held, and measure new rows only when idle (a
         screen drawn before that shows cut-off cells)."""
-        from rich.cells import cell_len
-
         keep = self.highlighted_key()
         self.clear(columns=True)
         if columns is not None:

@@ -7,12 +7,9 @@ from textual.binding import Binding
 from textual.containers import Vertical
 from textual.widgets import Input
 
+from tui.widgets import readers
 from tui.widgets.field import Field
 from tui.widgets.warning_line import WarningLine
-
-
-def _text(text: str, label: str) -> str:
-    return text
 
 
 class Panel(Vertical):
@@ -32,7 +29,7 @@ class Panel(Vertical):
         from tui.panels.cables.table import CableTable
 
         yield WarningLine()
-        yield Field("cables-filter", "Filter", reader=_text, placeholder="id, words, 75 ohm, poe...",
+        yield Field("cables-filter", "Filter", reader=readers.text, placeholder="id, words, 75 ohm, poe...",
                     tooltip="Shows cables whose id, description, category, impedance or "
                             "hazard tags contain every word typed")
         yield CableTable(id="cables-table")

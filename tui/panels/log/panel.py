@@ -11,13 +11,11 @@ from textual.message import Message
 from textual.widgets import DataTable, Input, Label, Select, Static
 
 from tui.panels.log.entry_table import EntryTable
+from tui.widgets import readers
 from tui.widgets.field import Field
 
 INTRO = "Ctrl+S on a panel saves here · p f r pass fail recheck · a tags · i note"
 
-
-def _filter_text(text: str, label: str) -> str:
-    return text
 
 
 class Panel(Vertical):
@@ -58,7 +56,7 @@ class Panel(Vertical):
                 yield Label("Job", classes="field-label")
                 yield Select([], id="log-job", prompt="no job yet: n starts one",
                              allow_blank=True, compact=True)
-            yield Field("log-filter", "Filter", reader=_filter_text,
+            yield Field("log-filter", "Filter", reader=readers.text,
                         placeholder="e.g. fail feeder",
                         tooltip="A word that is a tag shows entries with that tag; other "
                                 "words must appear in the label")
